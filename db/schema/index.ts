@@ -1,0 +1,4 @@
+export * from './people';
+export * from './equipment';
+export * from './runs';
+export * from './audit';

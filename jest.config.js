@@ -1,0 +1,26 @@
+// One Jest run for the Angular client (jsdom) and the Express server and engine (node).
+const { createCjsPreset } = require('jest-preset-angular/presets');
+
+/** @type {import('jest').Config} */
+module.exports = {
+  projects: [
+    {
+      ...createCjsPreset({ tsconfig: '<rootDir>/tsconfig.spec.json' }),
+      displayName: 'client',
+      roots: ['<rootDir>/src'],
+      setupFilesAfterEnv: ['<rootDir>/src/test-setup.ts'],
+    },
+    {
+      displayName: 'server',
+      testEnvironment: 'node',
+      roots: ['<rootDir>/server', '<rootDir>/db', '<rootDir>/tools'],
+      testMatch: ['**/*.spec.ts'],
+      transform: {
+        '^.+\\.[tj]s$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json' }],
+      },
+      transformIgnorePatterns: ['/node_modules/(?!(jose)/)'],
+      setupFiles: ['reflect-metadata'],
+      setupFilesAfterEnv: ['<rootDir>/server/testing/jest-setup.ts'],
+    },
+  ],
+};

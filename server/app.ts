@@ -1,0 +1,45 @@
+import 'reflect-metadata';
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import pino from 'pino';
+import { pinoHttp } from 'pino-http';
+import type { DbHandle } from '../db/client';
+import { authRouter } from './auth/auth-router';
+import type { Config } from './config';
+import { csrfProtection } from './core/csrf';
+import { apiNotFound, errorHandler } from './core/error-handler';
+import { sessionReader } from './core/session';
+import { healthRouter } from './health/health-router';
+import type { JobQueue } from './jobs/job-queue';
+import { apiRoutes } from './routes';
+
+/** Builds the Express app: security, logging, routers, then the API 404 and the one error handler. */
+export function createApp(config: Config, handle: DbHandle, queue: JobQueue | null = null): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  app.use(helmet());
+  const logger = pino({ level: config.logLevel, redact: ['req.headers.cookie', 'req.headers.authorization', 'res.headers["set-cookie"]'] });
+  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  app.use(cookieParser());
+  app.use(express.json({ limit: '20mb' }));
+
+  app.use('/api/health', healthRouter(handle.sql));
+  app.use('/api', csrfProtection(config), sessionReader(config, handle.db));
+  app.use('/api/auth', authRouter(handle.db, config));
+  app.use('/api', apiRoutes(handle.db, config, queue));
+  app.use('/api', apiNotFound);
+
+  if (existsSync(join(config.staticDir, 'index.html'))) {
+    app.use(express.static(config.staticDir, { index: false, maxAge: '1h' }));
+    // Client-side routes (e.g. /runs/12) all load the app shell; the router takes it from there.
+    app.get('/{*splat}', (_req, res) => res.sendFile(join(config.staticDir, 'index.html')));
+  }
+
+  app.use(errorHandler);
+  return app;
+}

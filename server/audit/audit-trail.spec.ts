@@ -1,0 +1,110 @@
+import { eq, sql } from 'drizzle-orm';
+import postgres from 'postgres';
+import { join } from 'node:path';
+import { auditEvents } from '../../db/schema';
+import { clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
+import { recordAudit, verifyAuditChain } from './audit-service';
+
+let h: ApiHarness;
+beforeAll(async () => {
+  h = await startHarness();
+});
+afterAll(() => h.close());
+
+/** A superuser connection over the cluster's own socket (tools/pg keeps it under .data/pg). */
+function superuser(): postgres.Sql {
+  const dir = process.env['QWELL_PG_DIR'] ?? join(__dirname, '..', '..', '.data', 'pg');
+  const port = Number(process.env['QWELL_PG_PORT'] ?? 54329);
+  const database = new URL(process.env['DATABASE_URL']!).pathname.slice(1);
+  return postgres({ path: join(dir, `.s.PGSQL.${port}`), user: 'postgres', database, onnotice: () => undefined, max: 1 });
+}
+
+describe('the audit trail', () => {
+  it('is refused UPDATE, DELETE and TRUNCATE by the database, for the app\'s own role', async () => {
+    await recordAudit(h.handle.db, { action: 'test.event', entityType: 'test', after: { n: 1 } });
+    const [last] = await h.handle.db.select().from(auditEvents).orderBy(sql`id desc`).limit(1);
+    // Drizzle wraps the database's error; the trigger's message is its cause.
+    const refusal = (q: Promise<unknown>) => q.then(() => 'allowed', (e: Error & { cause?: Error }) => e.cause?.message ?? e.message);
+    expect(await refusal(h.handle.db.update(auditEvents).set({ reason: 'edited' }).where(eq(auditEvents.id, last.id)))).toBe('audit_events is append-only: UPDATE is refused');
+    expect(await refusal(h.handle.db.delete(auditEvents).where(eq(auditEvents.id, last.id)))).toBe('audit_events is append-only: DELETE is refused');
+    expect(await refusal(h.handle.db.execute(sql`TRUNCATE audit_events`))).toBe('audit_events is append-only: TRUNCATE is refused');
+    const [still] = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.id, last.id));
+    expect(still.reason).toBeNull();
+  });
+
+  it('names the altered event when someone tampers with a row behind the trigger\'s back', async () => {
+    for (let i = 0; i < 3; i++) await recordAudit(h.handle.db, { action: 'test.chain', entityType: 'test', entityId: i, after: { i } });
+    expect((await verifyAuditChain(h.handle.db)).valid).toBe(true);
+    const rows = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.action, 'test.chain')).orderBy(auditEvents.id);
+    const victim = rows[1];
+    const su = superuser();
+    try {
+      await su.begin(async (tx) => {
+        await tx`ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update_delete`;
+        await tx`UPDATE audit_events SET after = ${tx.json({ i: 99 })} WHERE id = ${victim.id}`;
+        await tx`ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_update_delete`;
+      });
+      const investigator = await clientAs(h.app, 'investigator');
+      const res = await investigator.get('/api/audit/verify');
+      expect(res.status).toBe(200);
+      expect(res.body.valid).toBe(false);
+      expect(res.body.firstBroken.id).toBe(victim.id);
+      expect(res.body.firstBroken.reason).toMatch(/altered/);
+    } finally {
+      // Put the row back so later tests see a valid chain again.
+      await su.begin(async (tx) => {
+        await tx`ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update_delete`;
+        await tx`UPDATE audit_events SET after = ${tx.json({ i: 1 })} WHERE id = ${victim.id}`;
+        await tx`ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_update_delete`;
+      });
+      await su.end();
+    }
+    expect((await verifyAuditChain(h.handle.db)).valid).toBe(true);
+  });
+
+  it('reports a removed event as a broken link', async () => {
+    await recordAudit(h.handle.db, { action: 'test.remove', entityType: 'test', entityId: 'a' });
+    await recordAudit(h.handle.db, { action: 'test.remove', entityType: 'test', entityId: 'b' });
+    const [a, b] = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.action, 'test.remove')).orderBy(auditEvents.id);
+    const su = superuser();
+    try {
+      await su.begin(async (tx) => {
+        await tx`ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update_delete`;
+        await tx`DELETE FROM audit_events WHERE id = ${a.id}`;
+        await tx`ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_update_delete`;
+      });
+      const check = await verifyAuditChain(h.handle.db);
+      expect(check).toMatchObject({ valid: false, firstBroken: { id: b.id } });
+      expect(check.firstBroken!.reason).toMatch(/removed or altered/);
+    } finally {
+      // Restore the removed row exactly as it was.
+      await su.begin(async (tx) => {
+        await tx`ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update_delete`;
+        await tx`INSERT INTO audit_events (id, occurred_at, actor_id, actor_email, action, entity_type, entity_id, before, after, reason, ip, prev_hash, hash)
+                 VALUES (${a.id}, ${a.occurredAt}, ${a.actorId}, ${a.actorEmail}, ${a.action}, ${a.entityType}, ${a.entityId}, ${a.before as never}, ${a.after as never}, ${a.reason}, ${a.ip}, ${a.prevHash}, ${a.hash})`;
+        await tx`ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_update_delete`;
+      });
+      await su.end();
+    }
+    expect((await verifyAuditChain(h.handle.db)).valid).toBe(true);
+  });
+});
+
+describe('GET /api/audit', () => {
+  it('lists events newest first, filtered by action, for quality officers and investigators', async () => {
+    const quality = await clientAs(h.app, 'quality');
+    const res = await quality.get('/api/audit?action=auth.sign-in&pageSize=5');
+    expect(res.status).toBe(200);
+    expect(res.body.items.length).toBeGreaterThan(0);
+    expect(res.body.items.every((e: { action: string }) => e.action === 'auth.sign-in')).toBe(true);
+    const ids = res.body.items.map((e: { id: number }) => e.id);
+    expect([...ids].sort((a, b) => b - a)).toEqual(ids);
+  });
+
+  it('answers 400 for a bad filter, 401 without a session and 403 for a technician', async () => {
+    const quality = await clientAs(h.app, 'quality');
+    expect((await quality.get('/api/audit?from=yesterday')).status).toBe(400);
+    expect((await (await clientAs(h.app, null)).get('/api/audit')).status).toBe(401);
+    expect((await (await clientAs(h.app, 'technician')).get('/api/audit/verify')).status).toBe(403);
+  });
+});

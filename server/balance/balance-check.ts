@@ -1,0 +1,63 @@
+import { and, eq, sql } from 'drizzle-orm';
+import type { Database } from '../../db/client';
+import { balanceResults, people, runs } from '../../db/schema';
+import { recordAudit } from '../audit/audit-service';
+import type { Config } from '../config';
+import { checkRunDocument } from '../engine';
+import { projectAddresses, queueMail } from '../mail/outbox';
+import { loadRunDocument } from '../runs/run-loader';
+
+export type CheckOutcome = 'stored' | 'stale' | 'invalid';
+
+/**
+ * The queued balance check of one run version: engine, stored result, verdict on the run, audit
+ * event and mail, all in one transaction. A run edited since it was queued is left alone.
+ */
+export async function runBalanceCheck(db: Database, config: Config, runId: number, version: number): Promise<CheckOutcome> {
+  const [run] = await db.select().from(runs).where(eq(runs.id, runId));
+  if (!run || run.version !== version || run.state !== 'submitted') return 'stale';
+  const doc = await loadRunDocument(db, run, config.labName);
+  // Engine work happens outside the transaction: it can take a second on a large run.
+  const checked = checkRunDocument(doc, config.balance);
+
+  return db.transaction(async (tx) => {
+    const [locked] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
+    if (!locked || locked.version !== version || locked.state !== 'submitted') return 'stale';
+    const [author] = await tx.select({ email: people.email }).from(people).where(eq(people.id, locked.authorId));
+    if (!checked.ok) {
+      // The document passed validation at submit; a register change since can still make it unreadable.
+      // The run goes back to its author rather than waiting for a check that cannot succeed.
+      const reason = `The balance check could not read the run: ${checked.errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`;
+      await tx.update(runs).set({ state: 'returned', returnReason: reason.slice(0, 2000), version: locked.version + 1, updatedAt: sql`now()` }).where(eq(runs.id, runId));
+      await recordAudit(tx, { action: 'run.check-failed', entityType: 'run', entityId: runId, before: { state: 'submitted' }, after: { state: 'returned', errors: checked.errors }, reason: 'the engine could not read the run' });
+      await queueMail(tx, [{ to: author.email, subject: `Run ${locked.code}: the balance check could not run`, body: checked.errors.map((e) => `${e.path}: ${e.message}`).join('\n') }]);
+      return 'invalid';
+    }
+    const result = checked.result;
+    await tx.update(balanceResults).set({ current: false }).where(and(eq(balanceResults.runId, runId), eq(balanceResults.current, true)));
+    const [stored] = await tx.insert(balanceResults).values({
+      runId, runVersion: version, engineVersion: result.engineVersion, inputHash: result.inputHash, verdict: result.verdict,
+      en: result.En, residual: result.residual.r, expandedUncertainty: result.residual.U, result: result as unknown as Record<string, unknown>,
+    }).returning({ id: balanceResults.id });
+    await tx.update(runs).set({ verdict: result.verdict, updatedAt: sql`now()` }).where(eq(runs.id, runId));
+    await recordAudit(tx, {
+      action: 'run.checked', entityType: 'run', entityId: runId,
+      after: { resultId: stored.id, verdict: result.verdict, En: result.En, inputHash: result.inputHash, engineVersion: result.engineVersion },
+    });
+    if (result.verdict === 'breaks') {
+      const investigators = await projectAddresses(tx, locked.projectId, 'investigator');
+      const body = `Run ${locked.code} "${locked.title}" does not close its energy balance: En = ${result.En?.toFixed(2)} (> 1).\nr = ΔU − (Q − W) = ${result.residual.r.toPrecision(4)} J, U(r) = ${result.residual.U.toPrecision(2)} J (k = ${result.residual.k}).\nOpen the run in Qwell to see the flags and hints.`;
+      await queueMail(tx, [...new Set([...investigators, author.email])].map((to) => ({ to, subject: `Run ${locked.code}: the energy balance breaks`, body })));
+    }
+    return 'stored';
+  });
+}
+
+/** Re-queues checks that a crash may have lost: submitted runs with no result for their version. */
+export async function submittedWithoutResult(db: Database): Promise<{ runId: number; version: number }[]> {
+  const rows = await db.execute<{ id: number; version: number }>(sql`
+    SELECT r.id, r.version FROM runs r
+    WHERE r.state = 'submitted'
+      AND NOT EXISTS (SELECT 1 FROM balance_results b WHERE b.run_id = r.id AND b.run_version = r.version)`);
+  return [...rows].map((r) => ({ runId: r.id, version: r.version }));
+}

@@ -1,0 +1,43 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { randomUUID } from 'node:crypto';
+import { HttpProblem } from './problem';
+
+const problemType = (status: number) => `https://qwell.invalid/problems/${status}`;
+
+/** Unknown /api routes answer a problem, not the client's index.html. */
+export const apiNotFound: RequestHandler = (req, _res, next) => {
+  next(new HttpProblem(404, 'Not found', `There is no API route ${req.method} ${req.originalUrl.split('?')[0]}.`));
+};
+
+/** The single error handler: every failure leaves as application/problem+json, never a stack trace. */
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  let problem: HttpProblem;
+  if (err instanceof HttpProblem) {
+    problem = err;
+  } else if (err?.type === 'entity.parse.failed') {
+    problem = new HttpProblem(400, 'Bad request', 'The request body is not valid JSON.');
+  } else if (err?.type === 'entity.too.large') {
+    problem = new HttpProblem(413, 'Too large', 'The request body is larger than the server accepts.');
+  } else {
+    const reference = randomUUID();
+    req.log?.error({ err, reference }, 'unhandled error');
+    problem = new HttpProblem(
+      500,
+      'Server error',
+      `Something went wrong on the server and nothing was changed. Quote reference ${reference} when you report it.`,
+    );
+  }
+  if (res.headersSent) return;
+  res
+    .status(problem.status)
+    .type('application/problem+json')
+    .json({
+      type: problemType(problem.status),
+      title: problem.title,
+      status: problem.status,
+      detail: problem.detail,
+      instance: req.originalUrl,
+      ...(problem.errors ? { errors: problem.errors } : {}),
+      ...problem.extra,
+    });
+};

@@ -1,0 +1,89 @@
+import type { CookieOptions, RequestHandler, Response } from 'express';
+import { eq } from 'drizzle-orm';
+import { jwtVerify, SignJWT } from 'jose';
+import type { Database } from '../../db/client';
+import { people, type Role } from '../../db/schema';
+import type { Config } from '../config';
+import { forbidden, unauthorized } from './problem';
+
+export const SESSION_COOKIE = 'qwell_session';
+// Pinned: a token that names any other algorithm (or "none") is refused by jwtVerify.
+const ALGORITHM = 'HS256';
+const ISSUER = 'qwell';
+
+/** The signed-in person as the routes see it, loaded fresh from the database on every request. */
+export interface SessionPerson {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    person?: SessionPerson;
+  }
+}
+
+export function cookieOptions(config: Config): CookieOptions {
+  return { httpOnly: true, sameSite: 'strict', secure: config.secureCookies, path: '/' };
+}
+
+export async function issueSession(res: Response, config: Config, person: SessionPerson): Promise<void> {
+  const token = await new SignJWT({ role: person.role })
+    .setProtectedHeader({ alg: ALGORITHM })
+    .setSubject(String(person.id))
+    .setIssuer(ISSUER)
+    .setIssuedAt()
+    .setExpirationTime(`${config.sessionHours}h`)
+    .sign(config.sessionSecret);
+  res.cookie(SESSION_COOKIE, token, { ...cookieOptions(config), maxAge: config.sessionHours * 3600 * 1000 });
+}
+
+export function clearSession(res: Response, config: Config): void {
+  res.clearCookie(SESSION_COOKIE, cookieOptions(config));
+}
+
+/** Reads the session cookie when present; never refuses (requireSignIn does that). */
+export function sessionReader(config: Config, db: Database): RequestHandler {
+  return async (req, _res, next) => {
+    const token: unknown = req.cookies?.[SESSION_COOKIE];
+    if (typeof token !== 'string' || token === '') return next();
+    let personId: number;
+    try {
+      const { payload } = await jwtVerify(token, config.sessionSecret, { algorithms: [ALGORITHM], issuer: ISSUER });
+      personId = Number(payload.sub);
+    } catch {
+      return next(); // expired, tampered or foreign tokens count as no session
+    }
+    const [row] = await db
+      .select({ id: people.id, email: people.email, name: people.name, role: people.role, active: people.active })
+      .from(people)
+      .where(eq(people.id, personId));
+    if (row?.active) req.person = { id: row.id, email: row.email, name: row.name, role: row.role };
+    next();
+  };
+}
+
+export const requireSignIn: RequestHandler = (req, _res, next) => {
+  next(req.person ? undefined : unauthorized());
+};
+
+const roleNames: Record<Role, string> = {
+  technician: 'technicians',
+  assistant: 'student assistants',
+  investigator: 'principal investigators',
+  quality: 'quality officers',
+  admin: 'administrators',
+};
+
+/** Server-side role check; every route outside auth and health goes through one. */
+export function requireRole(...allowed: Role[]): RequestHandler {
+  return (req, _res, next) => {
+    if (!req.person) return next(unauthorized());
+    if (!allowed.includes(req.person.role)) {
+      return next(forbidden(`This is for ${allowed.map((r) => roleNames[r]).join(', ')} only; you are signed in as ${req.person.role}.`));
+    }
+    next();
+  };
+}

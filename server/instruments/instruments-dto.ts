@@ -1,0 +1,71 @@
+import { Type } from 'class-transformer';
+import { IsIn, IsNumber, IsObject, IsOptional, IsString, Length, Matches, Min, ValidateNested } from 'class-validator';
+import { channelKinds, type ChannelKind } from '../../db/schema';
+
+export class InstrumentSpecDto {
+  @IsOptional() @IsNumber({}, { message: 'percentOfReading must be a number' }) @Min(0, { message: 'percentOfReading cannot be negative' })
+  percentOfReading?: number;
+
+  @IsOptional() @IsNumber({}, { message: 'percentOfFullScale must be a number' }) @Min(0, { message: 'percentOfFullScale cannot be negative' })
+  percentOfFullScale?: number;
+
+  @IsOptional() @IsNumber({}, { message: 'fullScale must be a number' }) @Min(0, { message: 'fullScale cannot be negative' })
+  fullScale?: number;
+
+  @IsOptional() @IsNumber({}, { message: 'resolution must be a number' }) @Min(0, { message: 'resolution cannot be negative' })
+  resolution?: number;
+}
+
+export class CreateInstrumentDto {
+  @IsString() @Matches(/^[A-Z0-9][A-Z0-9-]{0,31}$/, { message: 'tag must be the lab\'s tag in capitals, digits and dashes (e.g. PG-4)' })
+  tag!: string;
+
+  @IsString() @Length(3, 200, { message: 'name must be 3 to 200 characters' })
+  name!: string;
+
+  @IsIn(channelKinds, { message: `kind must be one of ${channelKinds.join(', ')}` })
+  kind!: ChannelKind;
+
+  @IsString() @Length(1, 20, { message: 'unit is required (the unit the instrument reads in, e.g. kPa)' })
+  unit!: string;
+
+  @IsOptional() @IsString() @Length(0, 200)
+  manufacturer?: string;
+
+  @IsOptional() @IsString() @Length(0, 100)
+  serialNumber?: string;
+
+  @IsOptional() @IsNumber({}, { message: 'rangeMin must be a number' })
+  rangeMin?: number;
+
+  @IsOptional() @IsNumber({}, { message: 'rangeMax must be a number' })
+  rangeMax?: number;
+
+  @IsOptional() @IsObject({ message: 'spec must be an object' }) @ValidateNested() @Type(() => InstrumentSpecDto)
+  spec?: InstrumentSpecDto;
+}
+
+const isoDay = /^\d{4}-\d{2}-\d{2}$/;
+
+export class CreateCalibrationDto {
+  @Matches(isoDay, { message: 'calibratedOn must be a date like 2026-03-14' })
+  calibratedOn!: string;
+
+  @Matches(isoDay, { message: 'dueOn must be a date like 2027-03-14' })
+  dueOn!: string;
+
+  @IsString() @Length(2, 100, { message: 'certificate must name the certificate (2 to 100 characters)' })
+  certificate!: string;
+
+  @IsNumber({}, { message: 'expandedUncertainty must be a number (U, in the instrument\'s unit)' }) @Min(0, { message: 'expandedUncertainty cannot be negative' })
+  expandedUncertainty!: number;
+
+  @IsOptional() @IsNumber({}, { message: 'coverageFactor must be a number' }) @Min(1, { message: 'coverageFactor is at least 1' })
+  coverageFactor?: number;
+
+  @IsOptional() @IsObject({ message: 'corrections must be { offset?, gain? }' })
+  corrections?: { offset?: number; gain?: number };
+
+  @IsOptional() @IsString() @Length(0, 2000)
+  notes?: string;
+}

@@ -1,0 +1,51 @@
+import PgBoss from 'pg-boss';
+
+export const BALANCE_QUEUE = 'balance-check';
+export const CALIBRATION_DUE_QUEUE = 'calibration-due';
+export const SWEEP_QUEUE = 'balance-sweep';
+
+export interface BalanceJob {
+  runId: number;
+  version: number;
+}
+
+/**
+ * The PostgreSQL-backed job queue (pg-boss): heavy engine work leaves the request, survives a crash
+ * of the process that queued it, and any worker process on the same database can take it.
+ */
+export class JobQueue {
+  private readonly boss: PgBoss;
+
+  constructor(databaseUrl: string, private readonly onError: (error: Error) => void = () => undefined) {
+    this.boss = new PgBoss({ connectionString: databaseUrl, schema: 'pgboss', max: 4, supervise: true, schedule: true });
+    this.boss.on('error', (error) => this.onError(error));
+  }
+
+  async start(): Promise<void> {
+    await this.boss.start();
+    await this.boss.createQueue(BALANCE_QUEUE, { name: BALANCE_QUEUE, policy: 'standard', retryLimit: 3, retryDelay: 5, expireInSeconds: 600 });
+    await this.boss.createQueue(CALIBRATION_DUE_QUEUE, { name: CALIBRATION_DUE_QUEUE, policy: 'standard', retryLimit: 2 });
+    await this.boss.createQueue(SWEEP_QUEUE, { name: SWEEP_QUEUE, policy: 'standard' });
+  }
+
+  /** One job per run version: queuing the same check twice is a no-op. */
+  async enqueueBalanceCheck(job: BalanceJob): Promise<void> {
+    await this.boss.send(BALANCE_QUEUE, job, { singletonKey: `${job.runId}:${job.version}` });
+  }
+
+  async workBalanceChecks(handler: (job: BalanceJob) => Promise<void>): Promise<void> {
+    await this.boss.work<BalanceJob>(BALANCE_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => handler(job.data));
+  }
+
+  /** Daily mail about calibrations coming due, and a sweep that re-queues checks a crash may have lost. */
+  async scheduleMaintenance(calibrationDue: () => Promise<void>, sweep: () => Promise<void>): Promise<void> {
+    await this.boss.schedule(CALIBRATION_DUE_QUEUE, '0 6 * * *', {}, { tz: 'UTC' });
+    await this.boss.schedule(SWEEP_QUEUE, '*/5 * * * *', {}, { tz: 'UTC' });
+    await this.boss.work(CALIBRATION_DUE_QUEUE, async () => calibrationDue());
+    await this.boss.work(SWEEP_QUEUE, async () => sweep());
+  }
+
+  async stop(): Promise<void> {
+    await this.boss.stop({ graceful: true, timeout: 5000, wait: true });
+  }
+}

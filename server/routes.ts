@@ -1,0 +1,22 @@
+import { Router } from 'express';
+import type { Database } from '../db/client';
+import { auditRouter } from './audit/audit-router';
+import { balanceRouter } from './balance/balance-router';
+import type { Config } from './config';
+import { homeRouter } from './home/home-router';
+import { instrumentsRouter } from './instruments/instruments-router';
+import type { JobQueue } from './jobs/job-queue';
+import { peopleRouter } from './people/people-router';
+import { runsRouter } from './runs/runs-router';
+
+/** Every signed-in API resource; each router applies its own role checks per route. */
+export function apiRoutes(db: Database, config: Config, queue: JobQueue | null): Router {
+  const router = Router();
+  router.use('/home', homeRouter(db));
+  router.use('/balance', balanceRouter(config));
+  router.use('/runs', runsRouter(db, config, queue));
+  router.use('/instruments', instrumentsRouter(db));
+  router.use('/audit', auditRouter(db));
+  router.use('/people', peopleRouter(db));
+  return router;
+}

@@ -1,0 +1,86 @@
+import bcrypt from 'bcryptjs';
+import { and, eq, sql } from 'drizzle-orm';
+import type { Database } from '../../db/client';
+import { balanceResults, people, runs, signatures } from '../../db/schema';
+import { recordAudit } from '../audit/audit-service';
+import { badRequest, conflict, HttpProblem } from '../core/problem';
+import type { SessionPerson } from '../core/session';
+import { queueMail } from '../mail/outbox';
+import { loadRunFor } from './run-access';
+import { loadReadings } from './run-loader';
+import { approvalMeanings, rejectionMeanings, returnMeanings, type ReviewAction, type SignatureDto } from './review-dto';
+import { nextState } from './run-state-machine';
+import { signedHash } from './signature-hash';
+import { insertReadings } from './runs-service';
+
+const meaningsFor: Record<ReviewAction, readonly string[]> = { approve: approvalMeanings, return: returnMeanings, reject: rejectionMeanings };
+const pastTense: Record<ReviewAction, string> = { approve: 'approved', return: 'returned for correction', reject: 'rejected' };
+
+export class ReviewService {
+  constructor(private readonly db: Database) {}
+
+  /**
+   * Approve, return or reject with an electronic signature: the password again, the meaning, and for
+   * some cases a reason. The signature names the SHA-256 of the run and result that were on screen.
+   */
+  async decide(person: SessionPerson, id: number, action: ReviewAction, body: SignatureDto, ip: string | null) {
+    if (!meaningsFor[action].includes(body.meaning)) {
+      throw badRequest(`meaning must be one of: ${meaningsFor[action].map((m) => `"${m}"`).join(', ')}.`, [{ field: 'meaning', message: 'not a meaning for this action' }]);
+    }
+    const reason = body.reason?.trim() ?? '';
+    if ((action === 'return' || action === 'reject') && reason.length < 5) {
+      throw badRequest(`Say why the run is ${pastTense[action]} (reason, at least 5 characters).`, [{ field: 'reason', message: 'required' }]);
+    }
+    const [signer] = await this.db.select({ hash: people.passwordHash }).from(people).where(eq(people.id, person.id));
+    if (!signer || !(await bcrypt.compare(body.password, signer.hash))) {
+      await recordAudit(this.db, { actorId: person.id, actorEmail: person.email, action: 'signature.refused', entityType: 'run', entityId: id, reason: 'wrong password', ip });
+      throw new HttpProblem(401, 'Signature refused', 'The password is not right; nothing was signed.');
+    }
+
+    const outcome = await this.db.transaction(async (tx) => {
+      // The row lock makes two simultaneous decisions queue up: the second finds the run decided.
+      const run = await loadRunFor(tx, person, id, action, body.version);
+      const [result] = await tx.select().from(balanceResults).where(and(eq(balanceResults.runId, id), eq(balanceResults.current, true)));
+      if (action === 'approve') {
+        if (!result || result.runVersion !== run.version) throw conflict(`Run ${run.code} has no balance result for its current version yet; wait for the check to finish, then approve.`);
+        if (result.verdict === 'breaks' && reason.length < 20) {
+          throw badRequest(`The energy balance of run ${run.code} breaks (En = ${result.en?.toFixed(2)}). Approving it needs a written justification of at least 20 characters in reason.`, [{ field: 'reason', message: 'justification required for a breaking balance' }]);
+        }
+      }
+      const rows = await loadReadings(tx, id);
+      const hash = signedHash(run, rows, result);
+      const state = nextState[action]!;
+      const [after] = await tx.update(runs).set({
+        state, version: run.version + 1, decidedAt: sql`now()`, updatedAt: sql`now()`, returnReason: action === 'return' ? reason : run.returnReason,
+      }).where(eq(runs.id, id)).returning();
+      const [signature] = await tx.insert(signatures).values({ runId: id, signerId: person.id, action, meaning: body.meaning, reason: reason || null, signedHash: hash }).returning();
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: `run.${action}`, entityType: 'run', entityId: id, before: { state: run.state, version: run.version }, after: { state, version: after.version }, reason: reason || null, ip });
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'signature.create', entityType: 'signature', entityId: signature.id, after: { runId: id, action, meaning: body.meaning, signedHash: hash }, reason: reason || null, ip });
+      const [author] = await tx.select({ email: people.email }).from(people).where(eq(people.id, run.authorId));
+      await queueMail(tx, [{
+        to: author.email,
+        subject: `Run ${run.code} ${pastTense[action]}`,
+        body: `${person.name} ${pastTense[action]} run ${run.code} "${run.title}".${reason ? `\nReason: ${reason}` : ''}\nSignature: ${body.meaning} (SHA-256 ${hash}).`,
+      }]);
+      return { run: after, signature };
+    });
+    return outcome;
+  }
+
+  /** A correction of an approved run: a new revision (a draft copy) with a stated reason; the old stays readable. */
+  async revise(person: SessionPerson, id: number, reasonInput: string, ip: string | null) {
+    const reason = reasonInput.trim();
+    return this.db.transaction(async (tx) => {
+      const old = await loadRunFor(tx, person, id, 'revise');
+      const rows = await loadReadings(tx, id);
+      const [revision] = await tx.insert(runs).values({
+        code: old.code, revision: old.revision + 1, previousRevisionId: old.id, revisionReason: reason, projectId: old.projectId,
+        authorId: person.id, title: old.title, process: old.process, gasId: old.gasId, apparatusId: old.apparatusId, runDate: old.runDate,
+        setup: old.setup,
+      }).returning();
+      await insertReadings(tx, revision.id, rows);
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'run.revise', entityType: 'run', entityId: revision.id, before: { runId: old.id, revision: old.revision }, after: { runId: revision.id, revision: revision.revision, state: 'draft' }, reason, ip });
+      return revision;
+    });
+  }
+}

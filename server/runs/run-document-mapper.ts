@@ -1,0 +1,220 @@
+import type { InferSelectModel } from 'drizzle-orm';
+import type { apparatus as apparatusTable, calibrations, instruments, readings, runs } from '../../db/schema';
+import { RUN_FORMAT, RUN_FORMAT_VERSION, type Apparatus, type Instrument, type Readings, type RunDocument } from '../engine/run-document';
+import { differenceToSi, fromSi, toSi, type UnitKind } from '../engine/units';
+import { badRequest, type FieldError } from '../core/problem';
+import { CHANNELS, channelNames, type ChannelName, type ChannelSetup, type RunSetup } from './run-setup';
+
+export type ReadingRow = Omit<InferSelectModel<typeof readings>, 'runId'>;
+type RegisterInstrument = InferSelectModel<typeof instruments> & { calibration: InferSelectModel<typeof calibrations> | null };
+
+const TIME_FACTORS = { s: 1, min: 60, h: 3600 } as const;
+
+/** Readings as people send them: one array per channel, in the channel's own unit. */
+export interface ReadingsInput {
+  time: { unit: 's' | 'min' | 'h' | 'iso'; values: Array<number | string> };
+  channels: Partial<Record<ChannelName, ChannelSetup & { values: Array<number | null> }>>;
+}
+
+/** Converts entered readings to SI rows; every bad cell is reported by channel and reading number. */
+export function readingsToRows(input: ReadingsInput): { rows: ReadingRow[]; time: RunSetup['time']; channels: RunSetup['channels'] } {
+  const errors: FieldError[] = [];
+  const n = input.time.values.length;
+  let seconds: number[];
+  let origin: string | undefined;
+  if (input.time.unit === 'iso') {
+    const ms = input.time.values.map((v) => (typeof v === 'string' ? Date.parse(v) : NaN));
+    ms.forEach((m, i) => Number.isFinite(m) || errors.push({ field: `time.values[${i}]`, message: `reading ${i + 1}: not an ISO 8601 timestamp` }));
+    origin = typeof input.time.values[0] === 'string' ? input.time.values[0] : undefined;
+    seconds = ms.map((m) => (m - ms[0]) / 1000);
+  } else {
+    const factor = TIME_FACTORS[input.time.unit];
+    seconds = input.time.values.map((v, i) => {
+      if (typeof v !== 'number' || !Number.isFinite(v)) errors.push({ field: `time.values[${i}]`, message: `reading ${i + 1}: time must be a number` });
+      return Number(v) * factor;
+    });
+  }
+  const channels: NonNullable<RunSetup['channels']> = {};
+  const columns: Partial<Record<ChannelName, (number | null)[]>> = {};
+  for (const name of channelNames) {
+    const channel = input.channels[name];
+    if (!channel) continue;
+    const kind: UnitKind = CHANNELS[name];
+    if (channel.values.length !== n) {
+      errors.push({ field: `${name}.values`, message: `${name} has ${channel.values.length} readings but time has ${n}; every channel needs one value per time point` });
+      continue;
+    }
+    try {
+      toSi(kind, channel.unit, 0);
+    } catch {
+      errors.push({ field: `${name}.unit`, message: `"${channel.unit}" is not a ${name} unit Qwell knows` });
+      continue;
+    }
+    columns[name] = channel.values.map((v, i) => {
+      if (v === null) return null;
+      if (typeof v !== 'number' || !Number.isFinite(v)) {
+        errors.push({ field: `${name}.values[${i}]`, message: `reading ${i + 1}: ${name} must be a number, got ${JSON.stringify(v)}` });
+        return null;
+      }
+      return toSi(kind, channel.unit, v);
+    });
+    const { values: _values, ...meta } = channel;
+    channels[name] = meta;
+  }
+  if (errors.length) throw badRequest(`${errors.length} problem(s) in the readings; nothing was saved.`, errors.slice(0, 100));
+  const rows: ReadingRow[] = seconds.map((time, i) => ({
+    seq: i + 1,
+    time,
+    pressure: columns.pressure?.[i] ?? null,
+    volume: columns.volume?.[i] ?? null,
+    displacement: columns.displacement?.[i] ?? null,
+    temperature: columns.temperature?.[i] ?? null,
+    voltage: columns.voltage?.[i] ?? null,
+    current: columns.current?.[i] ?? null,
+    power: columns.power?.[i] ?? null,
+  }));
+  return { rows, time: { unit: input.time.unit, ...(origin ? { origin } : {}) }, channels };
+}
+
+/** Splits a full run document into what the runs table, its setup and its readings hold. */
+export function documentToStorage(doc: RunDocument) {
+  const r = doc.readings;
+  const channels: ReadingsInput['channels'] = {};
+  for (const name of channelNames) {
+    const c = (r as unknown as Record<string, (ChannelSetup & { values: number[] }) | undefined>)[name];
+    if (c) channels[name] = { unit: c.unit, values: c.values, ...(c.instrument ? { instrument: c.instrument } : {}), ...(c.reference ? { reference: c.reference } : {}) };
+  }
+  const { rows, time, channels: channelSetup } = readingsToRows({ time: r.time, channels });
+  const setup: RunSetup = {
+    gas: doc.gas,
+    amount: doc.amount,
+    processIndex: doc.process.index,
+    ambient: doc.ambient,
+    apparatus: doc.apparatus,
+    instruments: doc.instruments,
+    time,
+    channels: channelSetup,
+  };
+  return { setup, rows, apparatusConstants: doc.apparatus };
+}
+
+/** A register instrument described in the unit of the channel it reads, with its calibration on the run date. */
+export function registerInstrument(inst: RegisterInstrument, channelUnit: string, kind: UnitKind): Instrument {
+  const diff = (v: number) => differenceToSi(kind, inst.unit, v) / differenceToSi(kind, channelUnit, 1);
+  const point = (v: number) => fromSi(kind, channelUnit, toSi(kind, inst.unit, v));
+  const spec = inst.spec ?? {};
+  const cal = inst.calibration;
+  return {
+    id: inst.tag,
+    name: inst.name,
+    ...(spec.percentOfReading !== undefined ? { percentOfReading: spec.percentOfReading } : {}),
+    ...(spec.percentOfFullScale !== undefined ? { percentOfFullScale: spec.percentOfFullScale, fullScale: diff(spec.fullScale ?? 0) } : {}),
+    ...(spec.resolution !== undefined ? { resolution: diff(spec.resolution) } : {}),
+    ...(inst.rangeMin !== null && inst.rangeMax !== null ? { range: { min: point(inst.rangeMin), max: point(inst.rangeMax) } } : {}),
+    ...(cal ? { calibration: { U: diff(cal.expandedUncertainty), k: cal.coverageFactor }, calibrationDate: cal.calibratedOn, dueDate: cal.dueOn } : {}),
+  };
+}
+
+export interface DocumentContext {
+  run: InferSelectModel<typeof runs>;
+  rows: readonly ReadingRow[];
+  gasCode: string | null;
+  apparatus: InferSelectModel<typeof apparatusTable> | null;
+  /** Register instruments named by the run's channels, each with the calibration valid on the run date. */
+  register: ReadonlyMap<number, RegisterInstrument>;
+  lab: string;
+  operator: string;
+}
+
+function apparatusOf(a: DocumentContext['apparatus'], extra: RunSetup['apparatus']): Apparatus {
+  const q = (value: number | null | undefined, unit: string, u?: number | null) =>
+    value === null || value === undefined ? undefined : { value, unit, ...(u !== null && u !== undefined ? { u } : {}) };
+  const out: Apparatus = {
+    name: extra?.name ?? a?.name,
+    heatCapacity: q(a?.heatCapacity, 'J/K', a?.heatCapacityU),
+    heatLossCoefficient: q(a?.heatLossCoefficient, 'W/K', a?.heatLossCoefficientU),
+    ratedPressure: q(a?.ratedPressure, 'Pa'),
+    pistonBore: q(a?.bore, 'm'),
+    vesselVolume: q(a?.fixedVolume, 'm3'),
+    ...extra,
+  };
+  return Object.fromEntries(Object.entries(out).filter(([, v]) => v !== undefined)) as Apparatus;
+}
+
+/** Rebuilds the run document of a stored run, in the units it was entered in. */
+export function storageToDocument(ctx: DocumentContext): RunDocument {
+  const setup = (ctx.run.setup ?? {}) as RunSetup;
+  const instrumentsOut: Instrument[] = [...(setup.instruments ?? [])];
+  const readingsOut: Record<string, unknown> = {};
+  const timeUnit = setup.time?.unit ?? 's';
+  readingsOut['time'] =
+    timeUnit === 'iso'
+      ? { unit: 'iso', values: ctx.rows.map((r) => new Date(Date.parse(setup.time?.origin ?? '1970-01-01T00:00:00Z') + r.time * 1000).toISOString()) }
+      : { unit: timeUnit, values: ctx.rows.map((r) => r.time / TIME_FACTORS[timeUnit]) };
+  for (const name of channelNames) {
+    const channel = setup.channels?.[name];
+    if (!channel) continue;
+    const kind = CHANNELS[name];
+    const out: Record<string, unknown> = { unit: channel.unit, values: ctx.rows.map((r) => (r[name] === null ? NaN : fromSi(kind, channel.unit, r[name]!))) };
+    if (channel.reference) out['reference'] = channel.reference;
+    const registered = channel.instrumentId !== undefined ? ctx.register.get(channel.instrumentId) : undefined;
+    if (registered) {
+      instrumentsOut.push(registerInstrument(registered, channel.unit, kind));
+      out['instrument'] = registered.tag;
+    } else if (channel.instrument) {
+      out['instrument'] = channel.instrument;
+    }
+    readingsOut[name] = out;
+  }
+  // Two channels may share one instrument: describe it once.
+  const uniqueInstruments = [...new Map(instrumentsOut.map((i) => [i.id, i])).values()];
+  const gas = setup.gas ?? (ctx.gasCode ? { model: 'species' as const, species: ctx.gasCode as never } : { model: 'calorimeter' as const });
+  return {
+    format: RUN_FORMAT,
+    version: RUN_FORMAT_VERSION,
+    id: `${ctx.run.code}/${ctx.run.revision}`,
+    title: ctx.run.title,
+    lab: ctx.lab,
+    operator: ctx.operator,
+    runDate: ctx.run.runDate,
+    process: { claimed: ctx.run.process, ...(setup.processIndex !== undefined ? { index: setup.processIndex } : {}) },
+    gas,
+    ...(setup.amount ? { amount: setup.amount } : {}),
+    ambient: setup.ambient ?? {},
+    apparatus: apparatusOf(ctx.apparatus, setup.apparatus),
+    instruments: uniqueInstruments,
+    readings: readingsOut as unknown as Readings,
+  };
+}
+
+const isPlainObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** Checks the shape of a readings body before any conversion; says which part is wrong. */
+export function parseReadingsInput(body: { time?: unknown; channels?: unknown }): ReadingsInput {
+  const errors: FieldError[] = [];
+  const time = body.time;
+  if (!isPlainObject(time) || !['s', 'min', 'h', 'iso'].includes(time['unit'] as string) || !Array.isArray(time['values'])) {
+    errors.push({ field: 'time', message: 'time must be { unit: "s" | "min" | "h" | "iso", values: [...] }' });
+  }
+  const channels = body.channels;
+  if (!isPlainObject(channels)) {
+    errors.push({ field: 'channels', message: 'channels must be an object with one entry per channel' });
+  } else {
+    for (const [name, c] of Object.entries(channels)) {
+      if (!(channelNames as string[]).includes(name)) {
+        errors.push({ field: `channels.${name}`, message: `unknown channel "${name}"; channels are ${channelNames.join(', ')}` });
+      } else if (!isPlainObject(c) || typeof c['unit'] !== 'string' || !Array.isArray(c['values'])) {
+        errors.push({ field: `channels.${name}`, message: `${name} must be { unit, values: [...], instrumentId?, reference? }` });
+      } else {
+        if (c['instrumentId'] !== undefined && !Number.isInteger(c['instrumentId'])) errors.push({ field: `channels.${name}.instrumentId`, message: 'instrumentId must be the id of a register instrument' });
+        if (c['reference'] !== undefined && (name !== 'pressure' || !['absolute', 'gauge'].includes(c['reference'] as string))) {
+          errors.push({ field: `channels.${name}.reference`, message: 'reference is "absolute" or "gauge", and only for pressure' });
+        }
+        const extra = Object.keys(c).filter((k) => !['unit', 'values', 'instrumentId', 'instrument', 'reference'].includes(k));
+        if (extra.length) errors.push({ field: `channels.${name}`, message: `unknown field(s) ${extra.join(', ')}` });
+      }
+    }
+  }
+  if (errors.length) throw badRequest(errors.map((e) => e.message).join('; '), errors);
+  return body as ReadingsInput;
+}

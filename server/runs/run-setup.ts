@@ -1,0 +1,45 @@
+import type { AmountSpec, Apparatus, GasSpec, Instrument, Quantity } from '../engine/run-document';
+
+/** The reading channels a run can have, and the engine's unit kind for each. */
+export const CHANNELS = {
+  pressure: 'pressure',
+  volume: 'volume',
+  displacement: 'length',
+  temperature: 'temperature',
+  voltage: 'voltage',
+  current: 'current',
+  power: 'power',
+} as const;
+export type ChannelName = keyof typeof CHANNELS;
+export const channelNames = Object.keys(CHANNELS) as ChannelName[];
+
+/** How one channel was entered: its unit, the instrument that read it, and for pressure its reference. */
+export interface ChannelSetup {
+  unit: string;
+  /** An instrument of the lab's register (its calibration on the run date is looked up). */
+  instrumentId?: number;
+  /** Or an instrument described inside the run (from an imported run document). */
+  instrument?: string;
+  reference?: 'absolute' | 'gauge';
+}
+
+/**
+ * Everything about a run except its readings and the columns of the runs table: what the run
+ * document says, with channels pointing at register instruments. Stored as runs.setup (jsonb).
+ */
+export interface RunSetup {
+  gas?: GasSpec;
+  amount?: AmountSpec;
+  processIndex?: number;
+  ambient?: { pressure?: Quantity; temperature?: Quantity };
+  /**
+   * Apparatus values of this run; they take precedence over the apparatus register (e.g. a dead volume
+   * measured for this run, or the constants of an imported run document).
+   */
+  apparatus?: Apparatus;
+  /** Instruments described in the run itself rather than in the register. */
+  instruments?: Instrument[];
+  time?: { unit: 's' | 'min' | 'h' | 'iso'; origin?: string };
+  channels?: Partial<Record<ChannelName, ChannelSetup>>;
+  notes?: string;
+}

@@ -1,0 +1,74 @@
+import { Router } from 'express';
+import type { Database } from '../../db/client';
+import type { Config } from '../config';
+import { badRequest } from '../core/problem';
+import { idParam } from '../core/route-params';
+import { requireRole } from '../core/session';
+import { validateBody } from '../core/validate-body';
+import { validateQuery } from '../core/validate-query';
+import { balanceResponse } from '../balance/balance-response';
+import type { JobQueue } from '../jobs/job-queue';
+import { isReviewAction, SignatureDto } from './review-dto';
+import { ReviewService } from './review-service';
+import { CreateRunDto, ReplaceReadingsDto, ReviseDto, RunListQuery, UpdateRunDto, VersionDto } from './runs-dto';
+import { RunsService } from './runs-service';
+
+const READERS = ['technician', 'assistant', 'investigator', 'quality'] as const;
+const AUTHORS = ['technician', 'assistant', 'investigator'] as const;
+
+export function runsRouter(db: Database, config: Config, queue: JobQueue | null): Router {
+  const service = new RunsService(db, config, queue);
+  const review = new ReviewService(db);
+  const router = Router();
+
+  router.get('/', requireRole(...READERS), async (req, res) => {
+    const query = await validateQuery(RunListQuery, req.query);
+    res.json(await service.list(req.person!, query));
+  });
+
+  router.post('/', requireRole(...AUTHORS), async (req, res) => {
+    const body = await validateBody(CreateRunDto, req.body);
+    const run = await service.create(req.person!, body, [], req.ip ?? null);
+    res.status(201).location(`/api/runs/${run.id}`).json(run);
+  });
+
+  router.get('/:id', requireRole(...READERS), async (req, res) => {
+    res.json(await service.get(req.person!, idParam(req.params['id'], 'run')));
+  });
+
+  router.patch('/:id', requireRole(...AUTHORS), async (req, res) => {
+    const body = await validateBody(UpdateRunDto, req.body);
+    res.json(await service.update(req.person!, idParam(req.params['id'], 'run'), body, req.ip ?? null));
+  });
+
+  router.put('/:id/readings', requireRole(...AUTHORS), async (req, res) => {
+    const body = await validateBody(ReplaceReadingsDto, req.body);
+    res.json(await service.replaceReadings(req.person!, idParam(req.params['id'], 'run'), body, req.ip ?? null));
+  });
+
+  router.post('/:id/submit', requireRole(...AUTHORS), async (req, res) => {
+    const body = await validateBody(VersionDto, req.body);
+    const run = await service.submit(req.person!, idParam(req.params['id'], 'run'), body.version, req.ip ?? null);
+    res.status(202).json(run);
+  });
+
+  router.get('/:id/balance', requireRole(...READERS), async (req, res) => {
+    const { run, row } = await service.latestResult(req.person!, idParam(req.params['id'], 'run'));
+    res.json(balanceResponse(run, row));
+  });
+
+  router.post('/:id/revisions', requireRole(...AUTHORS), async (req, res) => {
+    const body = await validateBody(ReviseDto, req.body);
+    const revision = await review.revise(req.person!, idParam(req.params['id'], 'run'), body.reason, req.ip ?? null);
+    res.status(201).location(`/api/runs/${revision.id}`).json(revision);
+  });
+
+  router.post('/:id/:action', requireRole('investigator'), async (req, res) => {
+    const action = String(req.params['action']);
+    if (!isReviewAction(action)) throw badRequest(`Unknown run action "${action}"; use approve, return or reject.`);
+    const body = await validateBody(SignatureDto, req.body);
+    res.json(await review.decide(req.person!, idParam(req.params['id'], 'run'), action, body, req.ip ?? null));
+  });
+
+  return router;
+}

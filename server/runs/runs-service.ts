@@ -1,0 +1,219 @@
+import { and, asc, count, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import type { Database, DbOrTx } from '../../db/client';
+import { apparatus, balanceResults, gases, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
+import { recordAudit } from '../audit/audit-service';
+import type { Config } from '../config';
+import { badRequest, forbidden } from '../core/problem';
+import type { SessionPerson } from '../core/session';
+import { sha256Canonical, validateRunDocument } from '../engine';
+import type { JobQueue } from '../jobs/job-queue';
+import { projectAddresses, queueMail } from '../mail/outbox';
+import { loadRunFor, loadVisibleRun, type RunRow } from './run-access';
+import { parseReadingsInput, readingsToRows, type ReadingRow } from './run-document-mapper';
+import { loadReadings, loadRunDocument } from './run-loader';
+import type { RunSetup } from './run-setup';
+import type { CreateRunDto, ReplaceReadingsDto, RunListQuery, UpdateRunDto } from './runs-dto';
+
+/** Projects whose runs a person may see; null means every project (quality officers). */
+export async function visibleProjectIds(db: DbOrTx, person: SessionPerson): Promise<number[] | null> {
+  if (person.role === 'quality') return null;
+  const rows = await db.select({ id: projectMembers.projectId }).from(projectMembers).where(eq(projectMembers.personId, person.id));
+  return rows.map((r) => r.id);
+}
+
+// 9 columns × 5000 rows stays well under PostgreSQL's 65 535 parameters per statement.
+const READINGS_PER_STATEMENT = 5000;
+
+export async function insertReadings(tx: DbOrTx, runId: number, rows: readonly ReadingRow[]): Promise<void> {
+  for (let i = 0; i < rows.length; i += READINGS_PER_STATEMENT) {
+    await tx.insert(readings).values(rows.slice(i, i + READINGS_PER_STATEMENT).map((r) => ({ ...r, runId })));
+  }
+}
+
+/** Fields of a run that the audit trail records before and after a change. */
+const auditView = (r: RunRow) => ({
+  title: r.title, process: r.process, runDate: r.runDate, gasId: r.gasId, apparatusId: r.apparatusId, state: r.state, version: r.version, setup: r.setup,
+});
+
+export class RunsService {
+  constructor(private readonly db: Database, private readonly config: Config, private readonly queue: JobQueue | null) {}
+
+  async list(person: SessionPerson, query: RunListQuery) {
+    const filters: SQL[] = [];
+    const projectIds = await visibleProjectIds(this.db, person);
+    if (projectIds !== null) {
+      if (projectIds.length === 0) return { items: [], total: 0, page: query.page, pageSize: query.pageSize };
+      filters.push(inArray(runs.projectId, projectIds));
+    }
+    if (query.state) filters.push(eq(runs.state, query.state));
+    if (query.verdict) filters.push(eq(runs.verdict, query.verdict));
+    if (query.project !== undefined) filters.push(eq(runs.projectId, query.project));
+    if (query.author !== undefined) filters.push(eq(runs.authorId, query.author));
+    if (query.mine === 'true') filters.push(eq(runs.authorId, person.id));
+    if (query.from) filters.push(sql`${runs.runDate} >= ${query.from}`);
+    if (query.to) filters.push(sql`${runs.runDate} <= ${query.to}`);
+    const where = filters.length ? and(...filters) : undefined;
+
+    const sortColumn = { updatedAt: runs.updatedAt, createdAt: runs.createdAt, runDate: runs.runDate, code: runs.code, title: runs.title, state: runs.state }[query.sort];
+    const order = query.dir === 'asc' ? asc(sortColumn) : desc(sortColumn);
+
+    const [items, [{ total }]] = await Promise.all([
+      this.db
+        .select({
+          id: runs.id, code: runs.code, revision: runs.revision, title: runs.title, process: runs.process, state: runs.state,
+          verdict: runs.verdict, runDate: runs.runDate, authorId: runs.authorId, authorName: people.name, projectId: runs.projectId,
+          projectName: projects.name, updatedAt: runs.updatedAt,
+        })
+        .from(runs)
+        .innerJoin(people, eq(people.id, runs.authorId))
+        .innerJoin(projects, eq(projects.id, runs.projectId))
+        .where(where)
+        .orderBy(order, desc(runs.id))
+        .limit(query.pageSize)
+        .offset((query.page - 1) * query.pageSize),
+      this.db.select({ total: count() }).from(runs).where(where),
+    ]);
+    return { items, total, page: query.page, pageSize: query.pageSize };
+  }
+
+  /** The run, its readings as columns, its current result summary, signatures and revisions. */
+  async get(person: SessionPerson, id: number) {
+    const run = await loadVisibleRun(this.db, person, id);
+    const [rows, [result], sigs, revisions, [author], [project]] = await Promise.all([
+      loadReadings(this.db, id),
+      this.db.select({ id: balanceResults.id, runVersion: balanceResults.runVersion, verdict: balanceResults.verdict, en: balanceResults.en, computedAt: balanceResults.computedAt })
+        .from(balanceResults).where(and(eq(balanceResults.runId, id), eq(balanceResults.current, true))),
+      this.db.select({ id: signatures.id, action: signatures.action, meaning: signatures.meaning, reason: signatures.reason, signedHash: signatures.signedHash, signedAt: signatures.signedAt, signerName: people.name })
+        .from(signatures).innerJoin(people, eq(people.id, signatures.signerId)).where(eq(signatures.runId, id)).orderBy(asc(signatures.signedAt)),
+      this.db.select({ id: runs.id, revision: runs.revision, state: runs.state, revisionReason: runs.revisionReason, createdAt: runs.createdAt })
+        .from(runs).where(eq(runs.code, run.code)).orderBy(asc(runs.revision)),
+      this.db.select({ name: people.name }).from(people).where(eq(people.id, run.authorId)),
+      this.db.select({ name: projects.name }).from(projects).where(eq(projects.id, run.projectId)),
+    ]);
+    const column = (key: keyof ReadingRow) => rows.map((r) => r[key]);
+    return {
+      ...run,
+      authorName: author?.name,
+      projectName: project?.name,
+      readings: {
+        count: rows.length,
+        time: column('time'), pressure: column('pressure'), volume: column('volume'), displacement: column('displacement'),
+        temperature: column('temperature'), voltage: column('voltage'), current: column('current'), power: column('power'),
+      },
+      balance: result ? { ...result, stale: result.computedAt < run.editedAt } : null,
+      signatures: sigs,
+      revisions,
+    };
+  }
+
+  private async checkReferences(tx: DbOrTx, person: SessionPerson, body: { projectId?: number; gasId?: number | null; apparatusId?: number | null }) {
+    if (body.projectId !== undefined) {
+      const [member] = await tx.select().from(projectMembers).where(and(eq(projectMembers.projectId, body.projectId), eq(projectMembers.personId, person.id)));
+      if (!member) throw forbidden(`You are not a member of project ${body.projectId}; runs are created in one of your own projects.`);
+    }
+    if (body.gasId !== undefined && body.gasId !== null) {
+      const [gas] = await tx.select({ id: gases.id }).from(gases).where(eq(gases.id, body.gasId));
+      if (!gas) throw badRequest(`There is no gas with id ${body.gasId}.`, [{ field: 'gasId', message: 'unknown gas' }]);
+    }
+    if (body.apparatusId !== undefined && body.apparatusId !== null) {
+      const [app] = await tx.select({ id: apparatus.id }).from(apparatus).where(eq(apparatus.id, body.apparatusId));
+      if (!app) throw badRequest(`There is no apparatus with id ${body.apparatusId}.`, [{ field: 'apparatusId', message: 'unknown apparatus' }]);
+    }
+  }
+
+  /** Next people-facing code, R-<year>-<nnnn>, unique across revisions. */
+  private async nextCode(tx: DbOrTx, runDate: string): Promise<string> {
+    const year = runDate.slice(0, 4);
+    await tx.execute(sql`SELECT pg_advisory_xact_lock(7004313)`);
+    const [{ n }] = await tx.select({ n: sql<number>`count(DISTINCT ${runs.code})::int` }).from(runs).where(sql`${runs.code} LIKE ${`R-${year}-%`}`);
+    return `R-${year}-${String(n + 1).padStart(4, '0')}`;
+  }
+
+  async create(person: SessionPerson, body: CreateRunDto, rows: readonly ReadingRow[] = [], ip: string | null = null) {
+    if (!['technician', 'assistant', 'investigator'].includes(person.role)) throw forbidden('Runs are written by technicians, assistants and investigators.');
+    return this.db.transaction(async (tx) => {
+      await this.checkReferences(tx, person, body);
+      const code = await this.nextCode(tx, body.runDate);
+      const [run] = await tx.insert(runs).values({
+        code, projectId: body.projectId, authorId: person.id, title: body.title.trim(), process: body.process, runDate: body.runDate,
+        gasId: body.gasId ?? null, apparatusId: body.apparatusId ?? null, setup: (body.setup ?? {}) as Record<string, unknown>,
+      }).returning();
+      await insertReadings(tx, run.id, rows);
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'run.create', entityType: 'run', entityId: run.id, after: { ...auditView(run), code, readings: rows.length }, ip });
+      return run;
+    });
+  }
+
+  async update(person: SessionPerson, id: number, body: UpdateRunDto, ip: string | null) {
+    return this.db.transaction(async (tx) => {
+      const before = await loadRunFor(tx, person, id, 'edit', body.version);
+      await this.checkReferences(tx, person, body);
+      const changes = {
+        ...(body.title !== undefined ? { title: body.title.trim() } : {}),
+        ...(body.process !== undefined ? { process: body.process } : {}),
+        ...(body.runDate !== undefined ? { runDate: body.runDate } : {}),
+        ...(body.gasId !== undefined ? { gasId: body.gasId } : {}),
+        ...(body.apparatusId !== undefined ? { apparatusId: body.apparatusId } : {}),
+        ...(body.setup !== undefined ? { setup: body.setup as Record<string, unknown> } : {}),
+      };
+      const [after] = await tx.update(runs).set({ ...changes, version: before.version + 1, updatedAt: sql`now()`, editedAt: sql`now()` }).where(eq(runs.id, id)).returning();
+      const keys = Object.keys(changes) as (keyof ReturnType<typeof auditView>)[];
+      const pick = (r: RunRow) => Object.fromEntries(keys.map((k) => [k, auditView(r)[k]]));
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'run.update', entityType: 'run', entityId: id, before: { ...pick(before), version: before.version }, after: { ...pick(after), version: after.version }, ip });
+      return after;
+    });
+  }
+
+  async replaceReadings(person: SessionPerson, id: number, body: ReplaceReadingsDto, ip: string | null) {
+    const input = parseReadingsInput(body);
+    const { rows, time, channels } = readingsToRows(input);
+    return this.db.transaction(async (tx) => {
+      const before = await loadRunFor(tx, person, id, 'replaceReadings', body.version);
+      const oldRows = await loadReadings(tx, id);
+      await tx.delete(readings).where(eq(readings.runId, id));
+      await insertReadings(tx, id, rows);
+      const setup: RunSetup = { ...((before.setup ?? {}) as RunSetup), time, channels };
+      const [after] = await tx.update(runs).set({ setup: setup as Record<string, unknown>, version: before.version + 1, updatedAt: sql`now()`, editedAt: sql`now()` }).where(eq(runs.id, id)).returning();
+      await recordAudit(tx, {
+        actorId: person.id, actorEmail: person.email, action: 'run.readings-replace', entityType: 'run', entityId: id,
+        before: { readings: oldRows.length, sha256: sha256Canonical(oldRows), version: before.version },
+        after: { readings: rows.length, sha256: sha256Canonical(rows), version: after.version, channels: Object.keys(channels ?? {}) },
+        ip,
+      });
+      return { id, version: after.version, readings: rows.length };
+    });
+  }
+
+  /** Submits a run: it must read as a complete run document; the check itself is queued. */
+  async submit(person: SessionPerson, id: number, version: number, ip: string | null) {
+    const result = await this.db.transaction(async (tx) => {
+      const before = await loadRunFor(tx, person, id, 'submit', version);
+      const doc = await loadRunDocument(tx, before, this.config.labName);
+      const valid = validateRunDocument(doc);
+      if (!valid.ok) {
+        throw badRequest(`Run ${before.code} is not complete enough to check: ${valid.errors.length} problem(s). Nothing was changed.`,
+          valid.errors.map((e) => ({ field: e.path, message: e.message })));
+      }
+      const [after] = await tx.update(runs)
+        .set({ state: 'submitted', version: before.version + 1, submittedAt: sql`now()`, updatedAt: sql`now()`, verdict: null, returnReason: null })
+        .where(eq(runs.id, id)).returning();
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'run.submit', entityType: 'run', entityId: id, before: { state: before.state, version: before.version }, after: { state: after.state, version: after.version }, ip });
+      const investigators = await projectAddresses(tx, after.projectId, 'investigator');
+      await queueMail(tx, investigators.filter((e) => e !== person.email).map((to) => ({
+        to, subject: `Run ${after.code} submitted for review`,
+        body: `${person.name} submitted run ${after.code} "${after.title}" (${after.process}, ${after.runDate}).\nThe energy-balance check is running; open the run in Qwell to review it.`,
+      })));
+      return after;
+    });
+    // Queued after commit; the sweep re-queues it if this process dies first.
+    await this.queue?.enqueueBalanceCheck({ runId: result.id, version: result.version });
+    return result;
+  }
+
+  async latestResult(person: SessionPerson, id: number) {
+    const run = await loadVisibleRun(this.db, person, id);
+    const [row] = await this.db.select().from(balanceResults)
+      .where(and(eq(balanceResults.runId, id), eq(balanceResults.current, true)));
+    return { run, row };
+  }
+}

@@ -1,0 +1,39 @@
+import { Role } from '../auth/auth.models';
+
+/** One entry of the side navigation. */
+export interface NavEntry {
+  /** Absolute router path. */
+  path: string;
+  /** Text of the link. */
+  label: string;
+  /** Material Symbols (outlined) ligature name. */
+  icon: string;
+  /** Roles that see the entry and may open the page. */
+  roles: readonly Role[];
+}
+
+const EVERYONE: readonly Role[] = ['technician', 'assistant', 'investigator', 'quality', 'admin'];
+
+/**
+ * The one table of pages and who may open them: the side navigation is filtered from it, and
+ * app.routes.ts reads its roles for the role guard, so a link and its page never disagree.
+ */
+export const NAVIGATION = {
+  home: { path: '/home', label: 'Home', icon: 'home', roles: EVERYONE },
+  runs: {
+    path: '/runs',
+    label: 'Runs',
+    icon: 'science',
+    roles: ['technician', 'assistant', 'investigator', 'quality'],
+  },
+  instruments: { path: '/instruments', label: 'Instruments', icon: 'speed', roles: EVERYONE },
+  people: { path: '/people', label: 'People', icon: 'group', roles: ['admin'] },
+} as const satisfies Record<string, NavEntry>;
+
+/** The entries a role sees, in table order. */
+export function navigationFor(role: Role | null): NavEntry[] {
+  if (!role) {
+    return [];
+  }
+  return Object.values(NAVIGATION).filter((entry) => (entry.roles as readonly Role[]).includes(role));
+}

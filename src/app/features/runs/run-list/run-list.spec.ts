@@ -1,0 +1,112 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { Router, provideRouter } from '@angular/router';
+import { RouterTestingHarness } from '@angular/router/testing';
+
+import { routes } from '../../../app.routes';
+import { Auth } from '../../../core/auth/auth';
+import { RunPage } from '../runs.models';
+
+const page: RunPage = {
+  items: [
+    {
+      id: 7,
+      code: 'R-0007',
+      title: 'Argon, isothermal compression',
+      process: 'isothermal',
+      state: 'submitted',
+      verdict: 'breaks',
+      authorName: 'Lee Park',
+      projectName: 'Gas laws lab',
+      updatedAt: '2026-11-30T09:15:00Z',
+    },
+  ],
+  total: 60,
+  page: 2,
+  pageSize: 25,
+};
+
+describe('RunList', () => {
+  let httpTesting: HttpTestingController;
+  let harness: RouterTestingHarness;
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({
+      providers: [provideRouter(routes), provideHttpClient(), provideHttpClientTesting()],
+    });
+    httpTesting = TestBed.inject(HttpTestingController);
+    TestBed.inject(Auth).restore().subscribe();
+    httpTesting
+      .expectOne('/api/auth/me')
+      .flush({ person: { id: 3, email: 'investigator@lab.test', name: 'Dana Ortiz', role: 'investigator' } });
+    harness = await RouterTestingHarness.create();
+  });
+
+  afterEach(() => httpTesting.verify());
+
+  function expectList(): TestRequest {
+    return httpTesting.expectOne((request) => request.url === '/api/runs');
+  }
+
+  it('asks the server for the page, filter and sort in the address', async () => {
+    await harness.navigateByUrl('/runs?state=submitted&page=2&sort=code&dir=asc');
+
+    const params = expectList().request.params;
+    expect(params.get('state')).toBe('submitted');
+    expect(params.get('page')).toBe('2');
+    expect(params.get('pageSize')).toBe('25');
+    expect(params.get('sort')).toBe('code');
+    expect(params.get('dir')).toBe('asc');
+  });
+
+  it('falls back to the newest runs first, all states, for a bare or garbled address', async () => {
+    await harness.navigateByUrl('/runs?state=lost&page=-3&dir=sideways');
+
+    const params = expectList().request.params;
+    expect(params.get('state')).toBe('');
+    expect(params.get('page')).toBe('1');
+    expect(params.get('sort')).toBe('updatedAt');
+    expect(params.get('dir')).toBe('desc');
+  });
+
+  it('shows each run with its state as a word and its verdict as icon and word', async () => {
+    await harness.navigateByUrl('/runs?page=2');
+    expectList().flush(page);
+    await harness.fixture.whenStable();
+
+    const row = (harness.fixture.nativeElement as HTMLElement).querySelector('tr.mat-mdc-row');
+    const cells = Array.from(row?.querySelectorAll('td') ?? []).map((cell) => cell.textContent?.trim());
+    expect(cells.slice(0, 4)).toEqual(['R-0007', 'Argon, isothermal compression', 'isothermal', 'Submitted']);
+    expect(row?.querySelector('qw-verdict-display')?.textContent).toContain('Breaks');
+    expect(row?.querySelector('qw-verdict-display mat-icon')?.textContent?.trim()).toBe('cancel');
+    expect((harness.fixture.nativeElement as HTMLElement).textContent).toContain('26 – 50 of 60');
+  });
+
+  it('moves to the next page through the address and loads it from the server', async () => {
+    await harness.navigateByUrl('/runs?page=2');
+    expectList().flush(page);
+    await harness.fixture.whenStable();
+
+    (harness.fixture.nativeElement as HTMLElement)
+      .querySelector<HTMLButtonElement>('button.mat-mdc-paginator-navigation-next')
+      ?.click();
+    await harness.fixture.whenStable();
+
+    expect(TestBed.inject(Router).url).toBe('/runs?page=3');
+    expect(expectList().request.params.get('page')).toBe('3');
+  });
+
+  it("shows the server's detail when the list cannot be loaded", async () => {
+    await harness.navigateByUrl('/runs');
+    expectList().flush(
+      { type: 'about:blank', title: 'Server error', status: 500, detail: 'The database did not answer. Try again shortly.' },
+      { status: 500, statusText: 'Server Error' },
+    );
+    await harness.fixture.whenStable();
+
+    expect((harness.fixture.nativeElement as HTMLElement).querySelector('[role="alert"]')?.textContent).toContain(
+      'The database did not answer.',
+    );
+  });
+});

@@ -1,0 +1,157 @@
+import { LiveAnnouncer } from '@angular/cdk/a11y';
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSortModule, Sort } from '@angular/material/sort';
+import { MatTableModule } from '@angular/material/table';
+import { ActivatedRoute, ParamMap, Params, Router } from '@angular/router';
+import { catchError, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
+
+import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
+import { RunsApi } from '../runs-api';
+import {
+  RUN_STATES,
+  RUN_STATE_LABELS,
+  RunPage,
+  RunQuery,
+  RunSort,
+  RunState,
+} from '../runs.models';
+
+const DEFAULT_QUERY: RunQuery = { page: 1, pageSize: 25, state: null, sort: 'updatedAt', dir: 'desc' };
+const PAGE_SIZES = [10, 25, 50, 100];
+const SORTS: readonly RunSort[] = ['code', 'title', 'state', 'updatedAt'];
+
+/** Reads the list's query from the address, so home tiles, reloads and Back all land on the same view. */
+export function runQueryFrom(params: ParamMap): RunQuery {
+  const page = Number(params.get('page'));
+  const pageSize = Number(params.get('pageSize'));
+  const state = params.get('state') as RunState | null;
+  const sort = params.get('sort') as RunSort | null;
+  const dir = params.get('dir');
+  return {
+    page: Number.isInteger(page) && page > 0 ? page : DEFAULT_QUERY.page,
+    pageSize: PAGE_SIZES.includes(pageSize) ? pageSize : DEFAULT_QUERY.pageSize,
+    state: state && RUN_STATES.includes(state) ? state : null,
+    sort: sort && SORTS.includes(sort) ? sort : DEFAULT_QUERY.sort,
+    dir: dir === 'asc' || dir === 'desc' ? dir : DEFAULT_QUERY.dir,
+  };
+}
+
+@Component({
+  selector: 'qw-run-list',
+  imports: [
+    DatePipe,
+    MatFormFieldModule,
+    MatIconModule,
+    MatPaginatorModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatSortModule,
+    MatTableModule,
+    VerdictDisplay,
+  ],
+  templateUrl: './run-list.html',
+  styleUrl: './run-list.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  host: { class: 'page' },
+})
+export class RunList {
+  private readonly api = inject(RunsApi);
+  private readonly route = inject(ActivatedRoute);
+  private readonly router = inject(Router);
+  private readonly announcer = inject(LiveAnnouncer);
+
+  protected readonly columns = [
+    'code',
+    'title',
+    'process',
+    'state',
+    'verdict',
+    'authorName',
+    'projectName',
+    'updatedAt',
+  ];
+  protected readonly states = RUN_STATES;
+  protected readonly stateLabels = RUN_STATE_LABELS;
+  protected readonly pageSizes = PAGE_SIZES;
+
+  protected readonly query = toSignal(this.route.queryParamMap.pipe(map(runQueryFrom)), {
+    requireSync: true,
+  });
+  protected readonly result = signal<RunPage | null>(null);
+  protected readonly loading = signal(true);
+  protected readonly problem = signal<ProblemDetails | null>(null);
+
+  constructor() {
+    this.route.queryParamMap
+      .pipe(
+        map(runQueryFrom),
+        distinctUntilChanged((a, b) => JSON.stringify(a) === JSON.stringify(b)),
+        tap(() => this.loading.set(true)),
+        // Errors are caught per request so that the next filter or page still loads.
+        switchMap((query) =>
+          this.api.list(query).pipe(
+            map((page): RunPage | ProblemDetails => page),
+            catchError((error: unknown) => of(toProblem(error))),
+          ),
+        ),
+        takeUntilDestroyed(),
+      )
+      .subscribe((outcome) => ('items' in outcome ? this.show(outcome) : this.fail(outcome)));
+  }
+
+  protected stateLabel(state: RunState): string {
+    return RUN_STATE_LABELS[state] ?? state;
+  }
+
+  protected filterByState(state: RunState | null): void {
+    this.updateQuery({ state, page: 1 });
+  }
+
+  protected sortBy(sort: Sort): void {
+    // A third click on a header clears the sort: back to the newest first.
+    this.updateQuery(
+      sort.direction === ''
+        ? { sort: DEFAULT_QUERY.sort, dir: DEFAULT_QUERY.dir, page: 1 }
+        : { sort: sort.active as RunSort, dir: sort.direction, page: 1 },
+    );
+  }
+
+  protected turnPage(event: PageEvent): void {
+    this.updateQuery({ page: event.pageIndex + 1, pageSize: event.pageSize });
+  }
+
+  private updateQuery(change: Partial<RunQuery>): void {
+    const next = { ...this.query(), ...change };
+    const queryParams: Params = {};
+    for (const key of Object.keys(next) as (keyof RunQuery)[]) {
+      // Defaults stay out of the address to keep links short.
+      queryParams[key] = next[key] === DEFAULT_QUERY[key] ? null : next[key];
+    }
+    void this.router.navigate([], { relativeTo: this.route, queryParams, queryParamsHandling: 'merge' });
+  }
+
+  private show(page: RunPage): void {
+    this.result.set(page);
+    this.problem.set(null);
+    this.loading.set(false);
+    const first = page.total === 0 ? 0 : (page.page - 1) * page.pageSize + 1;
+    const last = Math.min(page.page * page.pageSize, page.total);
+    void this.announcer.announce(
+      page.total === 0 ? 'No runs match.' : `Runs ${first} to ${last} of ${page.total} shown.`,
+      'polite',
+    );
+  }
+
+  private fail(problem: ProblemDetails): void {
+    this.problem.set(problem);
+    this.loading.set(false);
+  }
+}
