@@ -6,7 +6,9 @@ import type { Config } from './config';
 import { homeRouter } from './home/home-router';
 import { instrumentsRouter } from './instruments/instruments-router';
 import type { JobQueue } from './jobs/job-queue';
+import { labRouter } from './lab/lab-router';
 import { peopleRouter } from './people/people-router';
+import { projectsRouter } from './projects/projects-router';
 import { runsRouter } from './runs/runs-router';
 
 /** Every signed-in API resource; each router applies its own role checks per route. */
@@ -18,5 +20,7 @@ export function apiRoutes(db: Database, config: Config, queue: JobQueue | null):
   router.use('/instruments', instrumentsRouter(db));
   router.use('/audit', auditRouter(db));
   router.use('/people', peopleRouter(db));
+  router.use('/projects', projectsRouter(db));
+  router.use('/', labRouter(db));
   return router;
 }

@@ -16,6 +16,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     problem = err;
   } else if (err?.type === 'entity.parse.failed') {
     problem = new HttpProblem(400, 'Bad request', 'The request body is not valid JSON.');
+  } else if (err?.cause?.code === '23505' || err?.code === '23505') {
+    // A unique index refused the write: two people created the same thing at the same moment.
+    problem = new HttpProblem(409, 'Conflict', 'A record with the same identifying value exists already; nothing was changed. Reload and try again.');
+  } else if (err?.cause?.code === '23503' || err?.code === '23503') {
+    problem = new HttpProblem(409, 'Conflict', 'The change refers to a record that does not exist (or is still referred to); nothing was changed.');
   } else if (err?.type === 'entity.too.large') {
     problem = new HttpProblem(413, 'Too large', 'The request body is larger than the server accepts.');
   } else {

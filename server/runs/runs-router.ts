@@ -57,6 +57,15 @@ export function runsRouter(db: Database, config: Config, queue: JobQueue | null)
     res.json(balanceResponse(run, row));
   });
 
+  router.get('/:id/history', requireRole(...READERS), async (req, res) => {
+    res.json(await service.history(req.person!, idParam(req.params['id'], 'run')));
+  });
+
+  router.get('/:id/document', requireRole(...READERS), async (req, res) => {
+    const doc = await service.document(req.person!, idParam(req.params['id'], 'run'));
+    res.type('application/json').attachment(`${doc.id?.replace('/', '-r') ?? 'run'}.qwell.json`).send(JSON.stringify(doc, null, 2));
+  });
+
   router.post('/:id/revisions', requireRole(...AUTHORS), async (req, res) => {
     const body = await validateBody(ReviseDto, req.body);
     const revision = await review.revise(req.person!, idParam(req.params['id'], 'run'), body.reason, req.ip ?? null);

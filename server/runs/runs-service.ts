@@ -1,6 +1,6 @@
 import { and, asc, count, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Database, DbOrTx } from '../../db/client';
-import { apparatus, balanceResults, gases, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
+import { apparatus, auditEvents, balanceResults, gases, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
 import type { Config } from '../config';
 import { badRequest, forbidden } from '../core/problem';
@@ -208,6 +208,27 @@ export class RunsService {
     // Queued after commit; the sweep re-queues it if this process dies first.
     await this.queue?.enqueueBalanceCheck({ runId: result.id, version: result.version });
     return result;
+  }
+
+  /** The audit events of a run and of its other revisions, oldest first: its history as people see it. */
+  async history(person: SessionPerson, id: number) {
+    const run = await loadVisibleRun(this.db, person, id);
+    const revisionIds = (await this.db.select({ id: runs.id }).from(runs).where(eq(runs.code, run.code))).map((r) => String(r.id));
+    const items = await this.db
+      .select({ id: auditEvents.id, occurredAt: auditEvents.occurredAt, actorEmail: auditEvents.actorEmail, actorName: people.name, action: auditEvents.action, entityId: auditEvents.entityId, before: auditEvents.before, after: auditEvents.after, reason: auditEvents.reason })
+      .from(auditEvents)
+      .leftJoin(people, eq(people.id, auditEvents.actorId))
+      .where(and(eq(auditEvents.entityType, 'run'), inArray(auditEvents.entityId, revisionIds)))
+      .orderBy(asc(auditEvents.id));
+    return { items };
+  }
+
+  /** The run as a run document (the export that POST /api/balance and the CLI read back). */
+  async document(person: SessionPerson, id: number) {
+    const run = await loadVisibleRun(this.db, person, id);
+    const doc = await loadRunDocument(this.db, run, this.config.labName);
+    await recordAudit(this.db, { actorId: person.id, actorEmail: person.email, action: 'run.export', entityType: 'run', entityId: id, after: { format: 'qwell.run', sha256: sha256Canonical(doc) } });
+    return doc;
   }
 
   async latestResult(person: SessionPerson, id: number) {
