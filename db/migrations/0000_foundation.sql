@@ -170,7 +170,7 @@ CREATE TABLE "uploads" (
 	"filename" text NOT NULL,
 	"media_type" text NOT NULL,
 	"size" integer NOT NULL,
-	"content_base64" text NOT NULL,
+	"content" "bytea" NOT NULL,
 	"uploaded_by" integer NOT NULL,
 	"run_id" integer,
 	"created_at" timestamp with time zone DEFAULT now() NOT NULL
@@ -193,6 +193,27 @@ CREATE TABLE "audit_events" (
 	CONSTRAINT "audit_events_hash_unique" UNIQUE("hash")
 );
 --> statement-breakpoint
+CREATE TABLE "column_maps" (
+	"id" serial PRIMARY KEY NOT NULL,
+	"name" text NOT NULL,
+	"owner_id" integer NOT NULL,
+	"headers" jsonb NOT NULL,
+	"mapping" jsonb NOT NULL,
+	"created_at" timestamp with time zone DEFAULT now() NOT NULL
+);
+--> statement-breakpoint
+CREATE TABLE "imports" (
+	"id" serial PRIMARY KEY NOT NULL,
+	"upload_id" integer NOT NULL,
+	"status" text DEFAULT 'previewed' NOT NULL,
+	"created_by" integer NOT NULL,
+	"parsed" jsonb NOT NULL,
+	"mapping" jsonb,
+	"run_id" integer,
+	"created_at" timestamp with time zone DEFAULT now() NOT NULL,
+	"committed_at" timestamp with time zone
+);
+--> statement-breakpoint
 ALTER TABLE "project_members" ADD CONSTRAINT "project_members_project_id_projects_id_fk" FOREIGN KEY ("project_id") REFERENCES "public"."projects"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "project_members" ADD CONSTRAINT "project_members_person_id_people_id_fk" FOREIGN KEY ("person_id") REFERENCES "public"."people"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "calibrations" ADD CONSTRAINT "calibrations_instrument_id_instruments_id_fk" FOREIGN KEY ("instrument_id") REFERENCES "public"."instruments"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
@@ -207,6 +228,10 @@ ALTER TABLE "signatures" ADD CONSTRAINT "signatures_run_id_runs_id_fk" FOREIGN K
 ALTER TABLE "signatures" ADD CONSTRAINT "signatures_signer_id_people_id_fk" FOREIGN KEY ("signer_id") REFERENCES "public"."people"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "uploads" ADD CONSTRAINT "uploads_uploaded_by_people_id_fk" FOREIGN KEY ("uploaded_by") REFERENCES "public"."people"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "uploads" ADD CONSTRAINT "uploads_run_id_runs_id_fk" FOREIGN KEY ("run_id") REFERENCES "public"."runs"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
+ALTER TABLE "column_maps" ADD CONSTRAINT "column_maps_owner_id_people_id_fk" FOREIGN KEY ("owner_id") REFERENCES "public"."people"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
+ALTER TABLE "imports" ADD CONSTRAINT "imports_upload_id_uploads_id_fk" FOREIGN KEY ("upload_id") REFERENCES "public"."uploads"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
+ALTER TABLE "imports" ADD CONSTRAINT "imports_created_by_people_id_fk" FOREIGN KEY ("created_by") REFERENCES "public"."people"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
+ALTER TABLE "imports" ADD CONSTRAINT "imports_run_id_runs_id_fk" FOREIGN KEY ("run_id") REFERENCES "public"."runs"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 CREATE INDEX "project_members_person_idx" ON "project_members" USING btree ("person_id");--> statement-breakpoint
 CREATE INDEX "calibrations_instrument_idx" ON "calibrations" USING btree ("instrument_id","calibrated_on");--> statement-breakpoint
 CREATE INDEX "calibrations_due_idx" ON "calibrations" USING btree ("due_on");--> statement-breakpoint
@@ -220,4 +245,5 @@ CREATE INDEX "signatures_run_idx" ON "signatures" USING btree ("run_id");--> sta
 CREATE INDEX "uploads_sha256_idx" ON "uploads" USING btree ("sha256");--> statement-breakpoint
 CREATE INDEX "audit_events_entity_idx" ON "audit_events" USING btree ("entity_type","entity_id");--> statement-breakpoint
 CREATE INDEX "audit_events_actor_idx" ON "audit_events" USING btree ("actor_id");--> statement-breakpoint
-CREATE INDEX "audit_events_occurred_idx" ON "audit_events" USING btree ("occurred_at");
+CREATE INDEX "audit_events_occurred_idx" ON "audit_events" USING btree ("occurred_at");--> statement-breakpoint
+CREATE INDEX "imports_created_by_idx" ON "imports" USING btree ("created_by","created_at");

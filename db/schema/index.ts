@@ -2,3 +2,4 @@ export * from './people';
 export * from './equipment';
 export * from './runs';
 export * from './audit';
+export * from './imports';

@@ -2,6 +2,7 @@ import {
   bigserial, boolean, date, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, serial, text, timestamp, uniqueIndex,
 } from 'drizzle-orm/pg-core';
 import { apparatus, gases } from './equipment';
+import { bytea } from './bytea';
 import { people, projects } from './people';
 
 export const runStates = ['draft', 'submitted', 'approved', 'returned', 'rejected'] as const;
@@ -124,7 +125,7 @@ export const uploads = pgTable(
     filename: text('filename').notNull(),
     mediaType: text('media_type').notNull(),
     size: integer('size').notNull(),
-    content: text('content_base64').notNull(),
+    content: bytea('content').notNull(),
     uploadedBy: integer('uploaded_by').notNull().references(() => people.id),
     runId: integer('run_id').references(() => runs.id),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),

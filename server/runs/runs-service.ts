@@ -6,6 +6,7 @@ import type { Config } from '../config';
 import { badRequest, forbidden } from '../core/problem';
 import type { SessionPerson } from '../core/session';
 import { sha256Canonical, validateRunDocument } from '../engine';
+import { buildSeries } from '../engine/series';
 import type { JobQueue } from '../jobs/job-queue';
 import { projectAddresses, queueMail } from '../mail/outbox';
 import { loadRunFor, loadVisibleRun, type RunRow } from './run-access';
@@ -91,6 +92,18 @@ export class RunsService {
       this.db.select({ name: projects.name }).from(projects).where(eq(projects.id, run.projectId)),
     ]);
     const column = (key: keyof ReadingRow) => rows.map((r) => r[key]);
+    // The engine's own SI series (absolute pressure, volume from displacement) for the diagrams.
+    let series: { t: number[]; P: number[] | null; V: number[] | null; T: number[]; power: number[] | null } | null = null;
+    const doc = validateRunDocument(await loadRunDocument(this.db, run, this.config.labName));
+    if (doc.ok) {
+      try {
+        const s = buildSeries(doc.doc);
+        const power = s.Pw ? Array.from(s.Pw.si) : s.U && s.I ? Array.from(s.U.si, (u, i) => u * s.I!.si[i]) : null;
+        series = { t: Array.from(s.t), P: s.P ? Array.from(s.P.si) : null, V: s.V ? Array.from(s.V.si) : null, T: Array.from(s.T.si), power };
+      } catch {
+        series = null; // a draft the engine cannot read yet has no diagram
+      }
+    }
     return {
       ...run,
       authorName: author?.name,
@@ -100,6 +113,7 @@ export class RunsService {
         time: column('time'), pressure: column('pressure'), volume: column('volume'), displacement: column('displacement'),
         temperature: column('temperature'), voltage: column('voltage'), current: column('current'), power: column('power'),
       },
+      series,
       balance: result ? { ...result, stale: result.computedAt < run.editedAt } : null,
       signatures: sigs,
       revisions,
