@@ -22,9 +22,21 @@ export function createApp(config: Config, handle: DbHandle, queue: JobQueue | nu
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
 
-  app.use(helmet());
-  const logger = pino({ level: config.logLevel, redact: ['req.headers.cookie', 'req.headers.authorization', 'res.headers["set-cookie"]'] });
-  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  // Over plain HTTP on loopback, upgrading requests or pinning HTTPS would break the app.
+  app.use(helmet({
+    contentSecurityPolicy: { directives: { upgradeInsecureRequests: config.secureCookies ? [] : null } },
+    strictTransportSecurity: config.secureCookies,
+  }));
+  const logger = pino({ level: config.logLevel });
+  app.use(pinoHttp({
+    logger,
+    autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+    // Method, path and status are enough; headers would log cookies.
+    serializers: {
+      req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+      res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+    },
+  }));
   app.use(cookieParser());
   app.use(express.json({ limit: '20mb' }));
 

@@ -17,14 +17,18 @@ async function main(): Promise<void> {
   }
   const queue = new JobQueue(config.databaseUrl, (error) => console.error('[queue]', error.message));
   await queue.start();
-  const mail = new MailDispatcher(handle.db, config);
+  const mail = new MailDispatcher(handle.db, config, (error) => console.error('[mail]', error instanceof Error ? error.message : error));
   mail.start(config.mail.sendIntervalMs);
   if (config.worker) await startWorker(handle.db, config, queue, mail);
 
+  // QWELL_API=0 makes a worker-only process: it takes queued checks and serves nothing.
   const app = createApp(config, handle, queue);
-  const server = app.listen(config.port, config.host, () => {
-    console.log(`[qwell] serving http://${config.host}:${config.port}${config.worker ? ' (with balance worker)' : ''}`);
-  });
+  const server = process.env['QWELL_API'] === '0'
+    ? null
+    : app.listen(config.port, config.host, () => {
+        console.log(`[qwell] serving http://${config.host}:${config.port}${config.worker ? ' (with balance worker)' : ''}`);
+      });
+  if (!server) console.log('[qwell] worker only: taking balance checks');
 
   let closing = false;
   const shutdown = (signal: string) => {
@@ -32,14 +36,19 @@ async function main(): Promise<void> {
     closing = true;
     console.log(`[qwell] ${signal}: closing`);
     setTimeout(() => process.exit(0), 8000).unref();
-    server.close(() => {
+    const finish = () => {
       mail.stop();
       void queue.stop().finally(() => void handle.close().then(() => process.exit(0)));
-    });
+    };
+    if (server) server.close(finish);
+    else finish();
   };
   process.on('SIGINT', () => shutdown('SIGINT'));
   process.on('SIGTERM', () => shutdown('SIGTERM'));
 }
+
+// A background task that fails (the database restarting, say) is logged; requests carry on.
+process.on('unhandledRejection', (reason) => console.error('[qwell] background task failed:', reason instanceof Error ? reason.message : reason));
 
 main().catch((error: unknown) => {
   console.error('[qwell] could not start:', error instanceof Error ? error.message : error);

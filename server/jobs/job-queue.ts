@@ -16,14 +16,19 @@ export interface BalanceJob {
 export class JobQueue {
   private readonly boss: PgBoss;
 
+  private readonly expireSeconds: number;
+
   constructor(databaseUrl: string, private readonly onError: (error: Error) => void = () => undefined) {
-    this.boss = new PgBoss({ connectionString: databaseUrl, schema: 'pgboss', max: 4, supervise: true, schedule: true });
+    // A check whose worker died (kill -9, power cut) is retried once it expires; maintenance notices it.
+    this.expireSeconds = Number(process.env['QWELL_JOB_EXPIRE_SECONDS'] ?? 120);
+    const maintenanceIntervalSeconds = Number(process.env['QWELL_QUEUE_MAINTENANCE_SECONDS'] ?? 30);
+    this.boss = new PgBoss({ connectionString: databaseUrl, schema: 'pgboss', max: 4, supervise: true, schedule: true, maintenanceIntervalSeconds });
     this.boss.on('error', (error) => this.onError(error));
   }
 
   async start(): Promise<void> {
     await this.boss.start();
-    await this.boss.createQueue(BALANCE_QUEUE, { name: BALANCE_QUEUE, policy: 'standard', retryLimit: 3, retryDelay: 5, expireInSeconds: 600 });
+    await this.boss.createQueue(BALANCE_QUEUE, { name: BALANCE_QUEUE, policy: 'standard', retryLimit: 3, retryDelay: 1, expireInSeconds: this.expireSeconds });
     await this.boss.createQueue(CALIBRATION_DUE_QUEUE, { name: CALIBRATION_DUE_QUEUE, policy: 'standard', retryLimit: 2 });
     await this.boss.createQueue(SWEEP_QUEUE, { name: SWEEP_QUEUE, policy: 'standard' });
   }

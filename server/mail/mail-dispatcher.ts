@@ -15,7 +15,11 @@ export class MailDispatcher {
   private timer?: NodeJS.Timeout;
   private running: Promise<number> | null = null;
 
-  constructor(private readonly db: Database, private readonly config: Config) {
+  constructor(
+    private readonly db: Database,
+    private readonly config: Config,
+    private readonly onError: (error: unknown) => void = () => undefined,
+  ) {
     this.transport = nodemailer.createTransport({
       host: config.mail.host,
       port: config.mail.port,
@@ -35,9 +39,17 @@ export class MailDispatcher {
     this.transport.close();
   }
 
-  /** Sends one batch; returns how many went out. Concurrent calls share one pass. */
+  /**
+   * Sends one batch; returns how many went out. Concurrent calls share one pass. Never rejects: with
+   * the database away the mail simply waits in the outbox for the next pass.
+   */
   flush(): Promise<number> {
-    this.running ??= this.sendBatch().finally(() => (this.running = null));
+    this.running ??= this.sendBatch()
+      .catch((error: unknown) => {
+        this.onError(error);
+        return 0;
+      })
+      .finally(() => (this.running = null));
     return this.running;
   }
 

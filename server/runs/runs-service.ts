@@ -31,6 +31,14 @@ export async function insertReadings(tx: DbOrTx, runId: number, rows: readonly R
   }
 }
 
+/** Next people-facing code, R-<year>-<nnnn>, unique across revisions (call it inside the creating transaction). */
+export async function nextCode(tx: DbOrTx, runDate: string): Promise<string> {
+  const year = runDate.slice(0, 4);
+  await tx.execute(sql`SELECT pg_advisory_xact_lock(7004313)`);
+  const [{ n }] = await tx.select({ n: sql<number>`count(DISTINCT ${runs.code})::int` }).from(runs).where(sql`${runs.code} LIKE ${`R-${year}-%`}`);
+  return `R-${year}-${String(n + 1).padStart(4, '0')}`;
+}
+
 /** Fields of a run that the audit trail records before and after a change. */
 const auditView = (r: RunRow) => ({
   title: r.title, process: r.process, runDate: r.runDate, gasId: r.gasId, apparatusId: r.apparatusId, state: r.state, version: r.version, setup: r.setup,
@@ -135,19 +143,11 @@ export class RunsService {
     }
   }
 
-  /** Next people-facing code, R-<year>-<nnnn>, unique across revisions. */
-  private async nextCode(tx: DbOrTx, runDate: string): Promise<string> {
-    const year = runDate.slice(0, 4);
-    await tx.execute(sql`SELECT pg_advisory_xact_lock(7004313)`);
-    const [{ n }] = await tx.select({ n: sql<number>`count(DISTINCT ${runs.code})::int` }).from(runs).where(sql`${runs.code} LIKE ${`R-${year}-%`}`);
-    return `R-${year}-${String(n + 1).padStart(4, '0')}`;
-  }
-
   async create(person: SessionPerson, body: CreateRunDto, rows: readonly ReadingRow[] = [], ip: string | null = null) {
     if (!['technician', 'assistant', 'investigator'].includes(person.role)) throw forbidden('Runs are written by technicians, assistants and investigators.');
     return this.db.transaction(async (tx) => {
       await this.checkReferences(tx, person, body);
-      const code = await this.nextCode(tx, body.runDate);
+      const code = await nextCode(tx, body.runDate);
       const [run] = await tx.insert(runs).values({
         code, projectId: body.projectId, authorId: person.id, title: body.title.trim(), process: body.process, runDate: body.runDate,
         gasId: body.gasId ?? null, apparatusId: body.apparatusId ?? null, setup: (body.setup ?? {}) as Record<string, unknown>,

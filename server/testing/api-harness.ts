@@ -99,8 +99,13 @@ export class ApiClient {
   readonly agent: ReturnType<typeof request.agent>;
   private xsrf = '';
 
-  constructor(app: Express) {
+  /** An in-process app, or the base URL of a running Qwell process. */
+  constructor(app: Express | string) {
     this.agent = request.agent(app);
+  }
+
+  get xsrfToken(): string {
+    return this.xsrf;
   }
 
   async primeCsrf(): Promise<void> {

@@ -1,0 +1,104 @@
+import { and, count, eq, sql } from 'drizzle-orm';
+import { execFileSync } from 'node:child_process';
+import { join } from 'node:path';
+import request from 'supertest';
+import { auditEvents, balanceResults, projects } from '../../db/schema';
+import { verifyAuditChain } from '../audit/audit-service';
+import { ApiClient, eventually, startHarness, type ApiHarness } from '../testing/api-harness';
+import { loadFixture, runBodies } from '../testing/fixture-runs';
+import { startQwellProcess, type QwellProcess } from '../testing/qwell-process';
+import { demoEmail } from '../../db/seed/demo-lab';
+
+let h: ApiHarness;
+const processes: QwellProcess[] = [];
+let projectId: number;
+
+beforeAll(async () => {
+  h = await startHarness();
+  [{ id: projectId }] = await h.handle.db.select({ id: projects.id }).from(projects).where(eq(projects.code, 'GX'));
+});
+afterAll(async () => {
+  await Promise.all(processes.map((p) => p.stop('SIGKILL')));
+  await h.close();
+});
+
+async function start(env: Record<string, string>, port?: number) {
+  const p = await startQwellProcess({ DATABASE_URL: process.env['DATABASE_URL']!, ...env }, port);
+  processes.push(p);
+  return p;
+}
+
+async function signedIn(url: string, role: 'technician' | 'investigator') {
+  const client = new ApiClient(url);
+  expect((await client.signIn(demoEmail(role))).status).toBe(200);
+  return client;
+}
+
+async function submitFixture(client: ApiClient, fixture: string) {
+  const bodies = runBodies(loadFixture(fixture), projectId);
+  const created = await client.post('/api/runs', bodies.create);
+  const put = await client.put(`/api/runs/${created.body.id}/readings`, { version: created.body.version, ...bodies.readings });
+  const submitted = await client.post(`/api/runs/${created.body.id}/submit`, { version: put.body.version });
+  expect(submitted.status).toBe(202);
+  return created.body.id as number;
+}
+
+const results = async (runId: number) => (await h.handle.db.select({ n: count() }).from(balanceResults).where(eq(balanceResults.runId, runId)))[0].n;
+
+describe('several processes on one database', () => {
+  it('checks a run submitted through one API process in a separate worker, visible through the other', async () => {
+    const a = await start({ QWELL_WORKER: '0' }, 3401);
+    const b = await start({ QWELL_WORKER: '0' }, 3402);
+    const worker = await start({ QWELL_API: '0', QWELL_MC_DRAWS: '2000' });
+    const tech = await signedIn(a.url, 'technician');
+    const runId = await submitFixture(tech, 'isochoric');
+    const investigator = await signedIn(b.url, 'investigator');
+    const res = await eventually(async () => {
+      const r = await investigator.get(`/api/runs/${runId}/balance`);
+      return r.status === 200 ? r : undefined;
+    }, 45_000, 'the result through the second API process');
+    expect(res.body.result.verdict).toBe('closes');
+    expect(await results(runId)).toBe(1);
+    await worker.stop();
+  });
+
+  it('runs a check again after its worker is killed with SIGKILL mid-check, storing one result and a valid chain', async () => {
+    const api = await start({ QWELL_WORKER: '0' }, 3403);
+    // Many Monte Carlo draws keep the check busy long enough to kill it in the middle.
+    const slow = { QWELL_API: '0', QWELL_MC_DRAWS: '5000000', QWELL_JOB_EXPIRE_SECONDS: '4', QWELL_QUEUE_MAINTENANCE_SECONDS: '1' };
+    const first = await start(slow);
+    const tech = await signedIn(api.url, 'technician');
+    const runId = await submitFixture(tech, 'isothermal');
+    await eventually(async () => {
+      const rows = await h.handle.db.execute<{ state: string }>(sql`SELECT state FROM pgboss.job WHERE name = 'balance-check' AND data->>'runId' = ${String(runId)}`);
+      return [...rows].some((r) => r.state === 'active') ? true : undefined;
+    }, 30_000, 'the check to become active');
+    await first.stop('SIGKILL');
+    expect(await results(runId)).toBe(0);
+    await start({ ...slow, QWELL_MC_DRAWS: '2000' });
+    await eventually(async () => ((await results(runId)) > 0 ? true : undefined), 60_000, 'the retried check');
+    expect(await results(runId)).toBe(1);
+    const checked = await h.handle.db.select().from(auditEvents).where(and(eq(auditEvents.action, 'run.checked'), eq(auditEvents.entityId, String(runId))));
+    expect(checked).toHaveLength(1);
+    expect((await verifyAuditChain(h.handle.db)).valid).toBe(true);
+  });
+
+  it('reports a database outage on /api/health and reconnects when PostgreSQL is back', async () => {
+    const api = await start({ QWELL_WORKER: '0' }, 3404);
+    const pg = (cmd: string) => execFileSync('bash', [join(__dirname, '..', '..', 'tools', 'pg'), cmd], { stdio: 'ignore' });
+    expect((await request(api.url).get('/api/health')).body).toEqual({ status: 'ok', db: 'ok' });
+    pg('down');
+    try {
+      const down = await request(api.url).get('/api/health');
+      expect(down.status).toBe(503);
+      expect(down.body.db).toBe('unreachable');
+    } finally {
+      pg('up');
+    }
+    const back = await eventually(async () => {
+      const r = await request(api.url).get('/api/health');
+      return r.status === 200 ? r : undefined;
+    }, 30_000, 'health after restart');
+    expect(back.body).toEqual({ status: 'ok', db: 'ok' });
+  });
+});

@@ -1,0 +1,45 @@
+import { eq } from 'drizzle-orm';
+import fc from 'fast-check';
+import { apparatus, instruments, people, projects, runs } from '../../db/schema';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
+import { fuzzOnce, fuzzTargets, payload } from './fuzz-writes';
+
+let h: ApiHarness;
+const clients = new Map<string, ApiClient>();
+let ids: Record<string, number>;
+
+beforeAll(async () => {
+  h = await startHarness();
+  for (const role of new Set(fuzzTargets.map((t) => t.role))) clients.set(role, await clientAs(h.app, role));
+  const first = async (state: 'draft' | 'submitted' | 'approved') => (await h.handle.db.select({ id: runs.id }).from(runs).where(eq(runs.state, state)).limit(1))[0].id;
+  ids = {
+    ':draft': await first('draft'),
+    ':submitted': await first('submitted'),
+    ':approved': await first('approved'),
+    ':instrument': (await h.handle.db.select({ id: instruments.id }).from(instruments).limit(1))[0].id,
+    ':apparatus': (await h.handle.db.select({ id: apparatus.id }).from(apparatus).limit(1))[0].id,
+    ':person': (await h.handle.db.select({ id: people.id }).from(people).where(eq(people.role, 'technician')).limit(1))[0].id,
+    ':project': (await h.handle.db.select({ id: projects.id }).from(projects).limit(1))[0].id,
+  };
+});
+afterAll(() => h.close());
+
+// A small count here; tools/fuzz runs ≥ 10 000 cases.
+const RUNS_PER_ROUTE = 15;
+
+describe('fuzzing the write routes', () => {
+  it.each(fuzzTargets.map((t) => [`${t.method} ${t.path}`, t] as const))('%s never answers 5xx nor writes on refusal', async (_name, target) => {
+    const url = target.path.replace(/:[a-z]+/g, (p) => String(ids[p]));
+    const statuses = new Set<number>();
+    await fc.assert(
+      fc.asyncProperty(payload, async (body) => {
+        const failure = await fuzzOnce(h.handle.db, clients.get(target.role)!, target.method, url, body, statuses);
+        if (failure) throw new Error(`fuzz failure: ${JSON.stringify(failure)}`);
+      }),
+      { numRuns: RUNS_PER_ROUTE, seed: 20261201 },
+    );
+    // The payloads reached validation (400), not a gate that refuses everything.
+    expect([...statuses].some((s) => s === 400 || s === 409 || s === 404)).toBe(true);
+    expect([...statuses].every((s) => s < 500)).toBe(true);
+  });
+});

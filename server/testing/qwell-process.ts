@@ -1,0 +1,44 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import { join } from 'node:path';
+
+const root = join(__dirname, '..', '..');
+
+export interface QwellProcess {
+  child: ChildProcess;
+  url: string;
+  output: string[];
+  stop(signal?: NodeJS.Signals): Promise<void>;
+}
+
+/** Starts `server/main.ts` as its own OS process and waits until it says it is ready. */
+export async function startQwellProcess(env: Record<string, string>, port?: number): Promise<QwellProcess> {
+  const child = spawn(join(root, 'node_modules/.bin/tsx'), ['--tsconfig', 'tsconfig.server.json', 'server/main.ts'], {
+    cwd: root,
+    env: { ...process.env, LOG_LEVEL: 'warn', QWELL_MAIL_CATCHER: '0', SMTP_PORT: '1', ...(port ? { PORT: String(port) } : {}), ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  const output: string[] = [];
+  const ready = new Promise<void>((resolve, reject) => {
+    const onData = (chunk: Buffer) => {
+      const text = chunk.toString();
+      output.push(text);
+      if (/\[qwell\] (serving|worker only)/.test(text)) resolve();
+    };
+    child.stdout!.on('data', onData);
+    child.stderr!.on('data', (c: Buffer) => output.push(c.toString()));
+    child.once('exit', (code) => reject(new Error(`qwell process exited with ${code}: ${output.join('')}`)));
+  });
+  const timeout = new Promise<never>((_, reject) => setTimeout(() => reject(new Error(`qwell process not ready in 60 s: ${output.join('')}`)), 60_000).unref());
+  await Promise.race([ready, timeout]);
+  return {
+    child,
+    url: `http://127.0.0.1:${port ?? 0}`,
+    output,
+    stop: (signal: NodeJS.Signals = 'SIGTERM') =>
+      new Promise<void>((resolve) => {
+        if (child.exitCode !== null || child.signalCode !== null) return resolve();
+        child.once('exit', () => resolve());
+        child.kill(signal);
+      }),
+  };
+}
