@@ -1,8 +1,6 @@
-import { eq } from 'drizzle-orm';
 import fc from 'fast-check';
-import { apparatus, instruments, people, projects, runs } from '../../db/schema';
 import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
-import { fuzzOnce, fuzzTargets, payload } from './fuzz-writes';
+import { fuzzOnce, fuzzParams, fuzzTargets, payload } from './fuzz-writes';
 
 let h: ApiHarness;
 const clients = new Map<string, ApiClient>();
@@ -11,16 +9,7 @@ let ids: Record<string, number>;
 beforeAll(async () => {
   h = await startHarness();
   for (const role of new Set(fuzzTargets.map((t) => t.role))) clients.set(role, await clientAs(h.app, role));
-  const first = async (state: 'draft' | 'submitted' | 'approved') => (await h.handle.db.select({ id: runs.id }).from(runs).where(eq(runs.state, state)).limit(1))[0].id;
-  ids = {
-    ':draft': await first('draft'),
-    ':submitted': await first('submitted'),
-    ':approved': await first('approved'),
-    ':instrument': (await h.handle.db.select({ id: instruments.id }).from(instruments).limit(1))[0].id,
-    ':apparatus': (await h.handle.db.select({ id: apparatus.id }).from(apparatus).limit(1))[0].id,
-    ':person': (await h.handle.db.select({ id: people.id }).from(people).where(eq(people.role, 'technician')).limit(1))[0].id,
-    ':project': (await h.handle.db.select({ id: projects.id }).from(projects).limit(1))[0].id,
-  };
+  ids = await fuzzParams(h.handle.db);
 });
 afterAll(() => h.close());
 

@@ -1,7 +1,8 @@
-import { sql } from 'drizzle-orm';
+import bcrypt from 'bcryptjs';
+import { eq, sql } from 'drizzle-orm';
 import fc from 'fast-check';
 import type { Database } from '../../db/client';
-import type { Role } from '../../db/schema';
+import { apparatus, instruments, people, projectMembers, projects, runs, type Role } from '../../db/schema';
 import type { ApiClient } from '../testing/api-harness';
 
 /** Write routes to fuzz, each with a role that passes its gate (so the payload reaches validation). */
@@ -66,4 +67,23 @@ export async function fuzzOnce(db: Database, client: ApiClient, method: string, 
     if (Object.keys(changed).length) return { route: `${method} ${url}`, status: res.status, body: res.body, payload: body, changed };
   }
   return null;
+}
+
+/**
+ * Ids for the fuzzed routes' parameters. The people, project and apparatus are throwaway ones made
+ * here, so that a random payload that happens to be valid cannot lock out or re-role the demo people
+ * other tests sign in as.
+ */
+export async function fuzzParams(db: Database): Promise<Record<string, number>> {
+  const tag = Date.now().toString(36).toUpperCase();
+  const first = async (state: 'draft' | 'submitted' | 'approved') => (await db.select({ id: runs.id }).from(runs).where(eq(runs.state, state)).limit(1))[0].id;
+  const [person] = await db.insert(people).values({ email: `fuzz-${tag.toLowerCase()}@fuzz.test`, name: 'Fuzz target', role: 'technician', passwordHash: await bcrypt.hash('fuzz-target-password', 4) }).returning();
+  const [project] = await db.insert(projects).values({ code: `FZ${tag.slice(-6)}`, name: 'Fuzz target project' }).returning();
+  await db.insert(projectMembers).values({ projectId: project.id, personId: person.id });
+  const [app] = await db.insert(apparatus).values({ tag: `FZ-${tag.slice(-6)}`, name: 'Fuzz target apparatus', kind: 'vessel' }).returning();
+  const [inst] = await db.select({ id: instruments.id }).from(instruments).limit(1);
+  return {
+    ':draft': await first('draft'), ':submitted': await first('submitted'), ':approved': await first('approved'),
+    ':instrument': inst.id, ':apparatus': app.id, ':person': person.id, ':project': project.id,
+  };
 }
