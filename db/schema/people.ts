@@ -15,6 +15,8 @@ export const people = pgTable('people', {
   /** Consecutive failed sign-ins since the last success or lock. */
   failedAttempts: integer('failed_attempts').notNull().default(0),
   lockedUntil: timestamp('locked_until', { withTimezone: true }),
+  /** Session tokens issued before this moment are refused (sign-out, deactivation, password change). */
+  sessionsValidAfter: timestamp('sessions_valid_after', { withTimezone: true }),
   active: boolean('active').notNull().default(true),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),

@@ -164,4 +164,18 @@ describe('POST /api/auth/sign-out', () => {
     const client = await clientAs(h.app, null);
     expect((await client.post('/api/auth/sign-out')).status).toBe(401);
   });
+
+  it('revokes the token itself: a copy of the cookie kept from before sign-out no longer works', async () => {
+    const person = await makePerson('revoke');
+    const client = new ApiClient(h.app);
+    const res = await client.signIn(person.email, person.password);
+    const token = ([] as string[]).concat(res.headers['set-cookie']).find((c) => c.startsWith(`${SESSION_COOKIE}=`))!.split(';')[0];
+    expect((await request(h.app).get('/api/auth/me').set('Cookie', token)).status).toBe(200);
+    await client.post('/api/auth/sign-out');
+    expect((await request(h.app).get('/api/auth/me').set('Cookie', token)).status).toBe(401);
+    // Signing in again at once gives a working session.
+    const again = new ApiClient(h.app);
+    expect((await again.signIn(person.email, person.password)).status).toBe(200);
+    expect((await again.get('/api/auth/me')).status).toBe(200);
+  });
 });

@@ -75,7 +75,11 @@ export class AuthService {
     return { id: person.id, email: person.email, name: person.name, role: person.role };
   }
 
+  /** Ends every session of the person: tokens issued until now are refused from here on. */
   async signOut(person: SessionPerson, ip: string | null): Promise<void> {
-    await recordAudit(this.db, { actorId: person.id, actorEmail: person.email, action: 'auth.sign-out', entityType: 'person', entityId: person.id, ip });
+    await this.db.transaction(async (tx) => {
+      await tx.update(people).set({ sessionsValidAfter: sql`now()` }).where(eq(people.id, person.id));
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'auth.sign-out', entityType: 'person', entityId: person.id, ip });
+    });
   }
 }

@@ -30,7 +30,8 @@ export function cookieOptions(config: Config): CookieOptions {
 }
 
 export async function issueSession(res: Response, config: Config, person: SessionPerson): Promise<void> {
-  const token = await new SignJWT({ role: person.role })
+  // iatMs: the JWT's iat has whole seconds, too coarse to tell a token from a sign-out in the same second.
+  const token = await new SignJWT({ role: person.role, iatMs: Date.now() })
     .setProtectedHeader({ alg: ALGORITHM })
     .setSubject(String(person.id))
     .setIssuer(ISSUER)
@@ -50,17 +51,20 @@ export function sessionReader(config: Config, db: Database): RequestHandler {
     const token: unknown = req.cookies?.[SESSION_COOKIE];
     if (typeof token !== 'string' || token === '') return next();
     let personId: number;
+    let issuedAtMs: number;
     try {
       const { payload } = await jwtVerify(token, config.sessionSecret, { algorithms: [ALGORITHM], issuer: ISSUER });
       personId = Number(payload.sub);
+      issuedAtMs = typeof payload['iatMs'] === 'number' ? payload['iatMs'] : (payload.iat ?? 0) * 1000;
     } catch {
       return next(); // expired, tampered or foreign tokens count as no session
     }
     const [row] = await db
-      .select({ id: people.id, email: people.email, name: people.name, role: people.role, active: people.active })
+      .select({ id: people.id, email: people.email, name: people.name, role: people.role, active: people.active, validAfter: people.sessionsValidAfter })
       .from(people)
       .where(eq(people.id, personId));
-    if (row?.active) req.person = { id: row.id, email: row.email, name: row.name, role: row.role };
+    const revoked = row?.validAfter ? issuedAtMs <= row.validAfter.getTime() : false;
+    if (row?.active && !revoked) req.person = { id: row.id, email: row.email, name: row.name, role: row.role };
     next();
   };
 }

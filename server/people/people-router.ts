@@ -49,7 +49,9 @@ export function peopleRouter(db: Database): Router {
         ...(body.role !== undefined ? { role: body.role } : {}),
         ...(body.active !== undefined ? { active: body.active } : {}),
         ...(body.unlock ? { lockedUntil: null, failedAttempts: 0 } : {}),
-        ...(hash ? { passwordHash: hash } : {}),
+        // A new password or a deactivation ends the person's open sessions.
+        ...(hash ? { passwordHash: hash, sessionsValidAfter: sql`now()` } : {}),
+        ...(body.active === false ? { sessionsValidAfter: sql`now()` } : {}),
         updatedAt: sql`now()`,
       }).where(eq(people.id, id)).returning(publicColumns);
       // The audit trail records that a password changed, never the password or its hash.
