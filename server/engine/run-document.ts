@@ -98,7 +98,8 @@ export type ValidationResult = { ok: true; doc: RunDocument } | { ok: false; err
 
 export const PROCESSES: readonly ClaimedProcess[] = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric'];
 
-const CHANNEL_KINDS: Readonly<Record<Exclude<keyof Readings, 'time'>, UnitKind>> = {
+/** The reading channels besides time, and the unit kind of each. */
+export const CHANNEL_KINDS: Readonly<Record<Exclude<keyof Readings, 'time'>, UnitKind>> = {
   pressure: 'pressure',
   volume: 'volume',
   displacement: 'length',

@@ -1,15 +1,7 @@
-import type { AmountSpec, Apparatus, GasSpec, Instrument, Quantity } from '../engine/run-document';
+import { CHANNEL_KINDS, type AmountSpec, type Apparatus, type GasSpec, type Instrument, type Quantity } from '../engine/run-document';
 
-/** The reading channels a run can have, and the engine's unit kind for each. */
-export const CHANNELS = {
-  pressure: 'pressure',
-  volume: 'volume',
-  displacement: 'length',
-  temperature: 'temperature',
-  voltage: 'voltage',
-  current: 'current',
-  power: 'power',
-} as const;
+/** The reading channels a run can have, and the engine's unit kind for each (the run document's own table). */
+export const CHANNELS = CHANNEL_KINDS;
 export type ChannelName = keyof typeof CHANNELS;
 export const channelNames = Object.keys(CHANNELS) as ChannelName[];
 
