@@ -9,13 +9,13 @@ import { BASE_URL, root } from './support/server-process';
 
 /** What each role finds in the side navigation (the one table in src/app/core/layout/navigation.ts). */
 const expectedNav: Record<Role, string[]> = {
-  technician: ['Home', 'Runs', 'Instruments'],
-  assistant: ['Home', 'Runs', 'Instruments'],
-  investigator: ['Home', 'Runs', 'Instruments'],
-  quality: ['Home', 'Runs', 'Instruments'],
-  admin: ['Home', 'Instruments', 'People'],
+  technician: ['Home', 'Runs', 'New run', 'Import', 'Instruments', 'Apparatus', 'Gases'],
+  assistant: ['Home', 'Runs', 'New run', 'Import', 'Instruments', 'Apparatus', 'Gases'],
+  investigator: ['Home', 'Runs', 'Instruments', 'Apparatus', 'Gases', 'Audit trail'],
+  quality: ['Home', 'Runs', 'Instruments', 'Apparatus', 'Gases', 'Audit trail'],
+  admin: ['Home', 'Instruments', 'Apparatus', 'Gases', 'People', 'Projects'],
 };
-const allEntries = ['Home', 'Runs', 'Instruments', 'People'];
+const allEntries = ['Home', 'Runs', 'New run', 'Import', 'Instruments', 'Apparatus', 'Gases', 'Audit trail', 'People', 'Projects'];
 
 let s: Session;
 beforeEach(async () => {

@@ -3,7 +3,9 @@ import type { Database } from '../db/client';
 import { auditRouter } from './audit/audit-router';
 import { balanceRouter } from './balance/balance-router';
 import type { Config } from './config';
+import { exportsRouter } from './exports/exports-router';
 import { homeRouter } from './home/home-router';
+import { importsRouter } from './imports/imports-router';
 import { instrumentsRouter } from './instruments/instruments-router';
 import type { JobQueue } from './jobs/job-queue';
 import { labRouter } from './lab/lab-router';
@@ -18,6 +20,8 @@ export function apiRoutes(db: Database, config: Config, queue: JobQueue | null):
   router.use('/balance', balanceRouter(config));
   router.use('/runs', runsRouter(db, config, queue));
   router.use('/instruments', instrumentsRouter(db));
+  router.use('/imports', importsRouter(db, config));
+  router.use('/', exportsRouter(db, config));
   router.use('/audit', auditRouter(db));
   router.use('/people', peopleRouter(db));
   router.use('/projects', projectsRouter(db));

@@ -1,7 +1,7 @@
 import { and, count, desc, eq, sql, type SQL } from 'drizzle-orm';
 import { Router } from 'express';
 import type { Database } from '../../db/client';
-import { auditEvents } from '../../db/schema';
+import { auditEvents, people } from '../../db/schema';
 import { requireRole } from '../core/session';
 import { validateQuery } from '../core/validate-query';
 import { AuditQuery } from './audit-dto';
@@ -30,6 +30,13 @@ export function auditRouter(db: Database): Router {
       db.select({ total: count() }).from(auditEvents).where(where),
     ]);
     res.json({ items, total, page: q.page, pageSize: q.pageSize });
+  });
+
+  /** People who appear in the trail, so readers can filter by name without the admin-only people list. */
+  router.get('/actors', readers, async (_req, res) => {
+    const items = await db.selectDistinct({ id: people.id, name: people.name, email: people.email })
+      .from(auditEvents).innerJoin(people, eq(people.id, auditEvents.actorId)).orderBy(people.name);
+    res.json({ items });
   });
 
   router.get('/verify', readers, async (_req, res) => {

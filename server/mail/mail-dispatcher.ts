@@ -5,6 +5,7 @@ import { mailOutbox } from '../../db/schema';
 import type { Config } from '../config';
 
 const MAX_ATTEMPTS = 8;
+const BATCH = 20;
 
 /**
  * Sends what is waiting in the outbox. Rows are claimed with SKIP LOCKED, so several API processes can
@@ -44,7 +45,7 @@ export class MailDispatcher {
    * the database away the mail simply waits in the outbox for the next pass.
    */
   flush(): Promise<number> {
-    this.running ??= this.sendBatch()
+    this.running ??= this.sendAll()
       .catch((error: unknown) => {
         this.onError(error);
         return 0;
@@ -53,16 +54,29 @@ export class MailDispatcher {
     return this.running;
   }
 
-  private async sendBatch(): Promise<number> {
+  /** Batches until the outbox is empty (or 50 batches, so one pass never runs unbounded). */
+  private async sendAll(): Promise<number> {
+    let total = 0;
+    for (let pass = 0; pass < 50; pass++) {
+      const { claimed, sent } = await this.sendBatch();
+      total += sent;
+      if (claimed < BATCH) break;
+    }
+    return total;
+  }
+
+  private async sendBatch(): Promise<{ claimed: number; sent: number }> {
     let sent = 0;
+    let claimed = 0;
     await this.db.transaction(async (tx) => {
       const batch = await tx
         .select()
         .from(mailOutbox)
         .where(and(isNull(mailOutbox.sentAt), lt(mailOutbox.attempts, MAX_ATTEMPTS)))
         .orderBy(asc(mailOutbox.id))
-        .limit(20)
+        .limit(BATCH)
         .for('update', { skipLocked: true });
+      claimed = batch.length;
       for (const mail of batch) {
         try {
           await this.transport.sendMail({ from: this.config.mail.from, to: mail.recipient, subject: mail.subject, text: mail.body });
@@ -74,6 +88,6 @@ export class MailDispatcher {
         }
       }
     });
-    return sent;
+    return { claimed, sent };
   }
 }

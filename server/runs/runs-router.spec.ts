@@ -21,6 +21,14 @@ describe('GET /api/runs', () => {
     expect(submitted.body.items.every((r: { state: string; verdict: string }) => r.state === 'submitted' && r.verdict === 'breaks')).toBe(true);
   });
 
+  it('treats an empty filter from a form as no filter', async () => {
+    const tech = await clientAs(h.app, 'technician');
+    const all = await tech.get('/api/runs');
+    const empty = await tech.get('/api/runs?state=&verdict=&project=');
+    expect(empty.status).toBe(200);
+    expect(empty.body.total).toBe(all.body.total);
+  });
+
   it('answers 400 for a bad filter or sort key, 401 without a session, 403 for an administrator', async () => {
     const tech = await clientAs(h.app, 'technician');
     const bad = await tech.get('/api/runs?state=finished');

@@ -67,11 +67,12 @@ describe('a run from draft to approved', () => {
     expect(verify.body.valid).toBe(true);
 
     // Mail: the investigators heard of the submission, the author of the approval.
-    await h.mail!.flush();
     const mails = await eventually(async () => {
+      await h.mail!.flush();
       const all = mailFiles();
-      return all.some((m) => m.includes(`Run ${run.code} approved`)) ? all : undefined;
-    }, 10_000, 'the approval mail');
+      const both = all.some((m) => m.includes(`Run ${run.code} approved`)) && all.some((m) => m.includes(`Run ${run.code} submitted for review`));
+      return both ? all : undefined;
+    }, 20_000, 'the submission and approval mails');
     const submitMail = mails.find((m) => m.includes(`Run ${run.code} submitted for review`))!;
     expect(submitMail).toContain(`X-Qwell-Envelope-To: ${demoEmail('investigator')}`);
     const approvalMail = mails.find((m) => m.includes(`Run ${run.code} approved`))!;

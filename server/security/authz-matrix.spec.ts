@@ -37,6 +37,7 @@ const matrix: Record<string, Who[] | 'public'> = {
   'GET /api/audit': ['quality', 'investigator'],
   'GET /api/audit/verify': ['quality', 'investigator'],
   'GET /api/audit/export': ['quality', 'investigator'],
+  'GET /api/audit/actors': ['quality', 'investigator'],
   'GET /api/runs/:id/report.pdf': readers,
   'GET /api/imports/column-maps': authors,
   'POST /api/imports/column-maps': authors,

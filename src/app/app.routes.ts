@@ -29,6 +29,13 @@ export const routes: Routes = [
         loadChildren: () => import('./features/runs/runs.routes').then((m) => m.runsRoutes),
       },
       {
+        // Investigators may import too; the navigation shows the entry to the roles that import daily.
+        path: 'imports',
+        canActivate: [roleGuard],
+        data: { roles: [...NAVIGATION.imports.roles, 'investigator'] },
+        loadChildren: () => import('./features/imports/imports.routes').then((m) => m.importsRoutes),
+      },
+      {
         path: 'instruments',
         canActivate: [roleGuard],
         data: { roles: NAVIGATION.instruments.roles },
@@ -36,10 +43,36 @@ export const routes: Routes = [
           import('./features/instruments/instruments.routes').then((m) => m.instrumentsRoutes),
       },
       {
+        path: 'apparatus',
+        canActivate: [roleGuard],
+        data: { roles: NAVIGATION.apparatus.roles },
+        loadChildren: () =>
+          import('./features/apparatus/apparatus.routes').then((m) => m.apparatusRoutes),
+      },
+      {
+        path: 'gases',
+        canActivate: [roleGuard],
+        data: { roles: NAVIGATION.gases.roles },
+        loadChildren: () => import('./features/gases/gases.routes').then((m) => m.gasesRoutes),
+      },
+      {
+        path: 'audit',
+        canActivate: [roleGuard],
+        data: { roles: NAVIGATION.audit.roles },
+        loadChildren: () => import('./features/audit/audit.routes').then((m) => m.auditRoutes),
+      },
+      {
         path: 'people',
         canActivate: [roleGuard],
         data: { roles: NAVIGATION.people.roles },
         loadChildren: () => import('./features/people/people.routes').then((m) => m.peopleRoutes),
+      },
+      {
+        path: 'projects',
+        canActivate: [roleGuard],
+        data: { roles: NAVIGATION.projects.roles },
+        loadChildren: () =>
+          import('./features/projects/projects.routes').then((m) => m.projectsRoutes),
       },
       {
         // Reached through roleGuard with skipLocationChange, so the address stays the one asked for.

@@ -26,8 +26,14 @@ export const NAVIGATION = {
     icon: 'science',
     roles: ['technician', 'assistant', 'investigator', 'quality'],
   },
+  newRun: { path: '/runs/new', label: 'New run', icon: 'edit_note', roles: ['technician', 'assistant'] },
+  imports: { path: '/imports', label: 'Import', icon: 'upload_file', roles: ['technician', 'assistant'] },
   instruments: { path: '/instruments', label: 'Instruments', icon: 'speed', roles: EVERYONE },
+  apparatus: { path: '/apparatus', label: 'Apparatus', icon: 'propane_tank', roles: EVERYONE },
+  gases: { path: '/gases', label: 'Gases', icon: 'bubble_chart', roles: EVERYONE },
+  audit: { path: '/audit', label: 'Audit trail', icon: 'policy', roles: ['investigator', 'quality'] },
   people: { path: '/people', label: 'People', icon: 'group', roles: ['admin'] },
+  projects: { path: '/projects', label: 'Projects', icon: 'folder_shared', roles: ['admin'] },
 } as const satisfies Record<string, NavEntry>;
 
 /** The entries a role sees, in table order. */

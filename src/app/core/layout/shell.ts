@@ -16,8 +16,8 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatListModule } from '@angular/material/list';
 import { MatSidenav, MatSidenavModule } from '@angular/material/sidenav';
 import { MatToolbarModule } from '@angular/material/toolbar';
-import { Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
-import { map } from 'rxjs';
+import { NavigationEnd, Router, RouterLink, RouterOutlet } from '@angular/router';
+import { filter, map } from 'rxjs';
 
 import { RoleLabelPipe } from '../../shared/role-label-pipe';
 import { Auth } from '../auth/auth';
@@ -37,7 +37,6 @@ export const NARROW_QUERY = '(max-width: 899.98px)';
     MatToolbarModule,
     RoleLabelPipe,
     RouterLink,
-    RouterLinkActive,
     RouterOutlet,
   ],
   templateUrl: './shell.html',
@@ -53,6 +52,21 @@ export class Shell {
 
   protected readonly person = this.auth.person;
   protected readonly entries = computed(() => navigationFor(this.auth.role()));
+
+  private readonly url = toSignal(
+    this.router.events.pipe(
+      filter((event): event is NavigationEnd => event instanceof NavigationEnd),
+      map((event) => event.urlAfterRedirects),
+    ),
+    { initialValue: this.router.url },
+  );
+
+  /** The entry whose path is the longest prefix of the address: /runs/new marks "New run", not "Runs" too. */
+  protected readonly activePath = computed(() => {
+    const path = this.url().split(/[?#]/)[0];
+    const matches = this.entries().filter((entry) => path === entry.path || path.startsWith(`${entry.path}/`));
+    return matches.sort((a, b) => b.path.length - a.path.length)[0]?.path ?? null;
+  });
   protected readonly narrow = toSignal(
     inject(BreakpointObserver)
       .observe(NARROW_QUERY)

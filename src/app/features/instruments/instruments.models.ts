@@ -1,5 +1,42 @@
 import { CalibrationStatus } from '../../shared/calibration-status/calibration-status-chip';
 
+/** The quantity an instrument reads; matches the run document's channels. */
+export type InstrumentKind =
+  | 'pressure'
+  | 'volume'
+  | 'displacement'
+  | 'temperature'
+  | 'voltage'
+  | 'current'
+  | 'power'
+  | 'time';
+
+/** Units the engine converts, per kind; the instrument's unit must be one of its kind's. */
+export const UNITS_BY_KIND: Readonly<Record<InstrumentKind, readonly string[]>> = {
+  pressure: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'],
+  volume: ['m3', 'L', 'mL', 'cm3'],
+  displacement: ['m', 'mm'],
+  temperature: ['K', 'degC', 'degF'],
+  voltage: ['V', 'mV'],
+  current: ['A', 'mA'],
+  power: ['W', 'mW'],
+  time: ['s', 'min', 'h'],
+};
+
+export const INSTRUMENT_KINDS = Object.keys(UNITS_BY_KIND) as InstrumentKind[];
+
+/** How the maker states the instrument's accuracy; any part may be missing. */
+export interface InstrumentSpec {
+  /** Accuracy as a percentage of the reading. */
+  percentOfReading?: number;
+  /** Accuracy as a percentage of full scale. */
+  percentOfFullScale?: number;
+  /** Full scale, in the instrument's unit. */
+  fullScale?: number;
+  /** Smallest step the display shows, in the instrument's unit. */
+  resolution?: number;
+}
+
 /** The latest calibration of an instrument. */
 export interface CalibrationSummary {
   /** ISO date the calibration was done. */
@@ -8,6 +45,10 @@ export interface CalibrationSummary {
   dueOn: string;
   /** Certificate reference. */
   certificate: string;
+  /** Expanded uncertainty U, in the instrument's unit. */
+  expandedUncertainty: number;
+  /** Coverage factor k of U. */
+  coverageFactor: number;
   status: CalibrationStatus;
 }
 
@@ -17,17 +58,56 @@ export interface Instrument {
   /** Lab's asset tag, e.g. `PT-03`. */
   tag: string;
   name: string;
-  /** What it measures: pressure gauge, thermocouple, … */
-  kind: string;
+  kind: InstrumentKind;
+  manufacturer: string;
   serialNumber: string;
-  /** Measuring range, in `unit`. */
-  rangeMin: number;
-  rangeMax: number;
+  /** Measuring range, in `unit`; null when not recorded. */
+  rangeMin: number | null;
+  rangeMax: number | null;
   unit: string;
+  spec: InstrumentSpec;
   /** null when the instrument has never been calibrated. */
   calibration: CalibrationSummary | null;
 }
 
 export interface InstrumentList {
   items: Instrument[];
+}
+
+/** One certificate in an instrument's history. */
+export interface CalibrationRecord extends CalibrationSummary {
+  id: number;
+  /** Corrections the certificate states: reading × gain + offset. */
+  corrections: { offset?: number; gain?: number };
+  notes: string;
+}
+
+/** Body of `GET /api/instruments/:id`: the instrument with every calibration, newest first. */
+export interface InstrumentDetail extends Omit<Instrument, 'calibration'> {
+  calibrations: CalibrationRecord[];
+}
+
+/** Body of `POST /api/instruments`. */
+export interface NewInstrument {
+  tag: string;
+  name: string;
+  kind: InstrumentKind;
+  unit: string;
+  manufacturer?: string;
+  serialNumber?: string;
+  rangeMin?: number;
+  rangeMax?: number;
+  spec?: InstrumentSpec;
+}
+
+/** Body of `POST /api/instruments/:id/calibrations`. */
+export interface NewCalibration {
+  calibratedOn: string;
+  dueOn: string;
+  certificate: string;
+  /** U, in the instrument's unit. */
+  expandedUncertainty: number;
+  coverageFactor?: number;
+  corrections?: { offset?: number; gain?: number };
+  notes?: string;
 }

@@ -6,4 +6,10 @@ export const instrumentsRoutes: Routes = [
     title: 'Instruments | Qwell',
     loadComponent: () => import('./instrument-list/instrument-list').then((m) => m.InstrumentList),
   },
+  {
+    path: ':id',
+    title: 'Instrument | Qwell',
+    loadComponent: () =>
+      import('./instrument-detail/instrument-detail').then((m) => m.InstrumentDetail),
+  },
 ];

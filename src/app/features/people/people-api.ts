@@ -2,7 +2,7 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import { PeopleList } from './people.models';
+import { NewPerson, PeopleList, PersonChange, PersonRecord } from './people.models';
 
 @Injectable({ providedIn: 'root' })
 export class PeopleApi {
@@ -11,5 +11,15 @@ export class PeopleApi {
   /** Everyone with an account in this lab. */
   list(): Observable<PeopleList> {
     return this.http.get<PeopleList>('/api/people');
+  }
+
+  /** Makes an account. */
+  create(body: NewPerson): Observable<PersonRecord> {
+    return this.http.post<PersonRecord>('/api/people', body);
+  }
+
+  /** Changes name, role, active state, lock or password. */
+  update(id: number, change: PersonChange): Observable<PersonRecord> {
+    return this.http.patch<PersonRecord>(`/api/people/${id}`, change);
   }
 }

@@ -2,7 +2,24 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import { RunPage, RunQuery } from './runs.models';
+import {
+  ApparatusItem,
+  BalanceResponse,
+  CreateRunBody,
+  Gas,
+  ItemList,
+  Project,
+  ReadingsBody,
+  ReviewAction,
+  RunDraft,
+  HistoryPage,
+  RunPage,
+  RunQuery,
+  RunRecord,
+  RunVersion,
+  SignatureRequest,
+  UpdateRunBody,
+} from './runs.models';
 
 @Injectable({ providedIn: 'root' })
 export class RunsApi {
@@ -20,5 +37,73 @@ export class RunsApi {
       },
     });
     return this.http.get<RunPage>('/api/runs', { params });
+  }
+
+  /** The person's own projects (where they may write runs). */
+  projects(): Observable<ItemList<Project>> {
+    return this.http.get<ItemList<Project>>('/api/projects');
+  }
+
+  gases(): Observable<ItemList<Gas>> {
+    return this.http.get<ItemList<Gas>>('/api/gases');
+  }
+
+  apparatus(): Observable<ItemList<ApparatusItem>> {
+    return this.http.get<ItemList<ApparatusItem>>('/api/apparatus');
+  }
+
+  /** One run with its setup and its readings in SI, for editing. */
+  draft(id: number): Observable<RunDraft> {
+    return this.http.get<RunDraft>(`/api/runs/${id}`);
+  }
+
+  /** Creates a draft; answers the new run with its id, code and version. */
+  create(body: CreateRunBody): Observable<RunVersion> {
+    return this.http.post<RunVersion>('/api/runs', body);
+  }
+
+  /** Edits a draft; 409 when `version` is no longer the run's. */
+  update(id: number, body: UpdateRunBody): Observable<RunVersion> {
+    return this.http.patch<RunVersion>(`/api/runs/${id}`, body);
+  }
+
+  /** Replaces all readings of a draft. */
+  replaceReadings(id: number, body: ReadingsBody): Observable<RunVersion> {
+    return this.http.put<RunVersion>(`/api/runs/${id}/readings`, body);
+  }
+
+  /** Hands the run in for its balance check; 400 lists what is missing. */
+  submitDraft(id: number, version: number): Observable<RunVersion> {
+    return this.http.post<RunVersion>(`/api/runs/${id}/submit`, { version });
+  }
+
+  /** The run with its readings, series, result summary, signatures and revisions. */
+  get(id: number): Observable<RunRecord> {
+    return this.http.get<RunRecord>(`/api/runs/${id}`);
+  }
+
+  /** The latest stored balance result; 404 while it is being checked or before submission. */
+  balance(id: number): Observable<BalanceResponse> {
+    return this.http.get<BalanceResponse>(`/api/runs/${id}/balance`);
+  }
+
+  /** Audit events of the run and its revisions, oldest first. */
+  history(id: number): Observable<HistoryPage> {
+    return this.http.get<HistoryPage>(`/api/runs/${id}/history`);
+  }
+
+  /** Address of the run document download. */
+  documentUrl(id: number): string {
+    return `/api/runs/${id}/document`;
+  }
+
+  /** Signs a review decision: approve, return for correction or reject. */
+  review(id: number, action: ReviewAction, body: SignatureRequest): Observable<unknown> {
+    return this.http.post<unknown>(`/api/runs/${id}/${action}`, body);
+  }
+
+  /** Opens a correction of an approved run as a new draft revision. */
+  revise(id: number, reason: string): Observable<{ id: number; revision: number }> {
+    return this.http.post<{ id: number; revision: number }>(`/api/runs/${id}/revisions`, { reason });
   }
 }

@@ -1,7 +1,8 @@
 import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
@@ -9,13 +10,15 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import { ActivatedRoute, ParamMap, Params, Router } from '@angular/router';
+import { ActivatedRoute, ParamMap, Params, Router, RouterLink } from '@angular/router';
 import { catchError, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
+import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { RunsApi } from '../runs-api';
 import {
+  RUN_AUTHORS,
   RUN_STATES,
   RUN_STATE_LABELS,
   RunPage,
@@ -48,6 +51,7 @@ export function runQueryFrom(params: ParamMap): RunQuery {
   selector: 'qw-run-list',
   imports: [
     DatePipe,
+    MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatPaginatorModule,
@@ -55,6 +59,7 @@ export function runQueryFrom(params: ParamMap): RunQuery {
     MatSelectModule,
     MatSortModule,
     MatTableModule,
+    RouterLink,
     VerdictDisplay,
   ],
   templateUrl: './run-list.html',
@@ -67,6 +72,10 @@ export class RunList {
   private readonly route = inject(ActivatedRoute);
   private readonly router = inject(Router);
   private readonly announcer = inject(LiveAnnouncer);
+  private readonly auth = inject(Auth);
+
+  /** Technicians, assistants and investigators write runs; quality reads them. */
+  protected readonly canWriteRuns = computed(() => (RUN_AUTHORS as readonly string[]).includes(this.auth.role() ?? ''));
 
   protected readonly columns = [
     'code',

@@ -1,0 +1,160 @@
+import { DEFAULT_DEMO_PASSWORD } from '../db/seed/demo-lab';
+import { openBrowser, screenshot, type Session } from './support/browser';
+import { BASE_URL } from './support/server-process';
+import { signInAs } from './support/sign-in';
+
+let s: Session;
+beforeEach(async () => {
+  s = await openBrowser();
+});
+afterEach(async () => {
+  await s.close();
+});
+
+/** Opens a mat-select by keyboard and picks the option whose text matches. */
+async function choose(label: string | RegExp, option: RegExp): Promise<void> {
+  const select = s.page.getByRole('combobox', { name: label });
+  await select.focus();
+  await s.page.keyboard.press('Enter');
+  const item = s.page.getByRole('option', { name: option }).first();
+  await item.waitFor();
+  await item.focus();
+  await s.page.keyboard.press('Enter');
+  await item.waitFor({ state: 'detached' });
+}
+
+describe('a technician at the bench', () => {
+  it('enters a run by keyboard, sees it saved, and submits it for the balance check', async () => {
+    const { page } = s;
+    const k = page.keyboard;
+    await signInAs(page, 'technician');
+    await page.getByRole('navigation', { name: /main/i }).getByRole('link', { name: 'New run' }).click();
+    await page.getByRole('heading', { level: 1, name: 'New run' }).waitFor();
+    await choose('Project', /Gas expansion/);
+    await page.getByLabel('Title').fill(`Isothermal compression of nitrogen, e2e ${Date.now()}`);
+    await choose('Process', /isothermal/i);
+    await choose('Gas', /Nitrogen|N2/);
+    await page.getByLabel('Amount n (mol)').fill('0.01');
+    await choose('Apparatus', /PC-3/);
+    await page.getByLabel('Ambient temperature', { exact: true }).fill('21');
+    for (const name of ['Pressure', 'Volume', 'Temperature']) {
+      await page.getByRole('checkbox', { name, exact: true }).focus();
+      await k.press('Space');
+    }
+    await choose('Pressure instrument', /PG-2/);
+    await choose('Temperature instrument', /TC-7/);
+    // The readings: typed cell by cell, Tab to the right, Enter down.
+    await page.getByLabel('Reading 1, time in s').focus();
+    const rows = [[0, 97.8, 250, 21.0], [10, 122.3, 200, 21.0], [20, 163.1, 150, 21.1], [30, 244.6, 100, 21.0], [40, 489.2, 50, 21.1]];
+    for (const row of rows) {
+      for (const [j, v] of row.entries()) {
+        await k.type(String(v));
+        await k.press(j < row.length - 1 ? 'Tab' : 'Enter');
+      }
+      for (let j = 0; j < row.length - 1; j++) await k.press('Shift+Tab');
+    }
+    expect(await page.getByLabel('Reading 3, pressure in kPa').inputValue()).toBe('163.1');
+    expect(await page.getByLabel('Reading 5, temperature in °C').inputValue()).toBe('21.1');
+    await page.getByText(/Saved \d\d:\d\d/).waitFor({ timeout: 20_000 });
+    expect(page.url()).toMatch(/\/runs\/\d+\/edit$/);
+    // The pressure run carries the safety caution.
+    expect(await page.getByRole('note').filter({ hasText: /rated pressure/i }).count()).toBeGreaterThan(0);
+    await screenshot(page, 'run-entry-technician');
+    await page.getByRole('button', { name: 'Submit for the balance check' }).focus();
+    await k.press('Enter');
+    await page.waitForURL(/\/runs\/\d+$/, { timeout: 20_000 });
+    await page.getByText(/submitted/i).first().waitFor();
+    await screenshot(page, 'run-page-after-submit');
+  });
+});
+
+describe('an investigator', () => {
+  it('approves a submitted run with an electronic signature', async () => {
+    const { page } = s;
+    await signInAs(page, 'investigator');
+    await page.goto('/runs?state=submitted');
+    await page.getByRole('link', { name: 'R-2026-0002' }).click();
+    await page.getByRole('heading', { level: 1, name: /R-2026-0002/ }).waitFor();
+    await page.getByText('Q − W').first().waitFor();
+    await screenshot(page, 'run-page-investigator');
+    await page.getByRole('button', { name: /Approve/ }).click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByLabel('Your password').fill(DEFAULT_DEMO_PASSWORD);
+    await choose('Meaning of your signature', /reviewed this run and approve/);
+    await screenshot(page, 'review-dialog');
+    await dialog.getByRole('button', { name: 'Sign and approve' }).click();
+    await dialog.waitFor({ state: 'detached' });
+    await page.getByText(/approved/i).first().waitFor();
+    expect(await page.getByRole('button', { name: /Approve/ }).count()).toBe(0);
+    // The signature is listed with its meaning.
+    await page.getByText('I have reviewed this run and approve its results').first().waitFor();
+  });
+});
+
+describe('a quality officer', () => {
+  it('adds a calibration to an overdue instrument and verifies the audit chain', async () => {
+    const { page } = s;
+    await signInAs(page, 'quality');
+    await page.getByRole('navigation', { name: /main/i }).getByRole('link', { name: 'Instruments' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Instruments' }).waitFor();
+    await screenshot(page, 'instruments-register');
+    await page.getByRole('link', { name: 'LD-3' }).click();
+    await page.getByRole('heading', { level: 1, name: /LD-3/ }).waitFor();
+    await page.getByRole('button', { name: /Add calibration/ }).click();
+    const dialog = page.getByRole('dialog');
+    const today = new Date().toISOString().slice(0, 10);
+    const nextYear = `${Number(today.slice(0, 4)) + 1}${today.slice(4)}`;
+    await dialog.getByLabel('Calibrated on').fill(today);
+    await dialog.getByLabel('Next due on').fill(nextYear);
+    await dialog.getByLabel('Certificate').fill('HIAT-CAL-E2E');
+    await dialog.getByLabel('Expanded uncertainty U').fill('0.02');
+    await dialog.getByRole('button', { name: 'Add calibration' }).click();
+    await dialog.waitFor({ state: 'detached' });
+    await page.getByText('HIAT-CAL-E2E').first().waitFor();
+    await screenshot(page, 'instrument-detail-quality');
+    await page.getByRole('navigation', { name: /main/i }).getByRole('link', { name: 'Audit trail' }).click();
+    await page.getByRole('heading', { level: 1, name: /Audit trail/ }).waitFor();
+    await page.getByRole('button', { name: 'Verify the chain' }).click();
+    await page.getByText('Chain intact').waitFor();
+    await screenshot(page, 'audit-trail-verified');
+  });
+});
+
+describe('a student assistant', () => {
+  it('sees only what an assistant may', async () => {
+    const { page } = s;
+    await signInAs(page, 'assistant');
+    const nav = page.getByRole('navigation', { name: /main/i });
+    expect(await nav.getByRole('link', { name: 'Audit trail' }).count()).toBe(0);
+    expect(await nav.getByRole('link', { name: 'People' }).count()).toBe(0);
+    await nav.getByRole('link', { name: 'Import' }).click();
+    await page.getByRole('heading', { level: 1 }).waitFor();
+    await screenshot(page, 'import-assistant');
+    for (const path of ['/audit', '/people', '/projects']) {
+      await page.goto(path);
+      await page.getByText(/Not for your role/i).first().waitFor();
+    }
+    // A submitted run: readable, but no review buttons for an assistant.
+    await page.goto('/runs?state=submitted');
+    await page.getByRole('link', { name: 'R-2026-0003' }).click();
+    await page.getByRole('heading', { level: 1, name: /R-2026-0003/ }).waitFor();
+    expect(await page.getByRole('button', { name: /Approve|Reject/ }).count()).toBe(0);
+    expect(page.url().startsWith(BASE_URL)).toBe(true);
+  });
+});
+
+describe('the other main screens', () => {
+  it.each([
+    ['admin', '/people', 'people-admin'],
+    ['admin', '/projects', 'projects-admin'],
+    ['quality', '/apparatus', 'apparatus-quality'],
+    ['quality', '/gases', 'gases'],
+    ['technician', '/runs', 'runs-list'],
+  ] as const)('as %s, %s renders its heading', async (role, path, name) => {
+    await signInAs(s.page, role);
+    await s.page.goto(path);
+    await s.page.getByRole('heading', { level: 1 }).waitFor();
+    expect(await s.page.getByText(/Not for your role|Something went wrong/i).count()).toBe(0);
+    await screenshot(s.page, name);
+  });
+});

@@ -1,0 +1,90 @@
+import { ArrayMaxSize, ArrayMinSize, IsArray, IsObject, IsString, Length } from 'class-validator';
+import { badRequest, type FieldError } from '../core/problem';
+import { validateBody } from '../core/validate-body';
+import { CreateRunDto } from '../runs/runs-dto';
+import type { CsvOptions, Delimiter } from './csv-reader';
+import type { ImportMapping } from './row-validation';
+
+/** POST /api/imports/column-maps: a saved column map ("logger profile") made from one file's headers. */
+export class ColumnMapDto {
+  @IsString({ message: 'name must be text' }) @Length(2, 120, { message: 'name must be 2 to 120 characters' })
+  name!: string;
+
+  @IsArray({ message: 'headers must be the list of column headers' }) @ArrayMinSize(1) @ArrayMaxSize(500)
+  @IsString({ each: true, message: 'each header must be text' })
+  headers!: string[];
+
+  @IsObject({ message: 'mapping must be { time: { index, unit }, columns: [...] }' })
+  mapping!: Record<string, unknown>;
+}
+
+export type CommitTarget = { newRun: CreateRunDto } | { runId: number; version: number };
+
+export interface CommitBody {
+  mapping: ImportMapping;
+  target: CommitTarget;
+}
+
+const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+const isIndex = (v: unknown) => Number.isInteger(v) && (v as number) >= 0;
+
+/** Checks the shape of a mapping; what it means for the file is checked against the file (checkMapping). */
+export function parseMapping(value: unknown, prefix = 'mapping'): ImportMapping {
+  const errors: FieldError[] = [];
+  if (!isObject(value)) throw badRequest(`${prefix} must be { time: { index, unit }, columns: [{ index, channel, unit, reference?, instrumentId? }] }.`, [{ field: prefix, message: 'missing or not an object' }]);
+  const time = value['time'];
+  if (!isObject(time) || !isIndex(time['index']) || typeof time['unit'] !== 'string') {
+    errors.push({ field: `${prefix}.time`, message: 'time must be { index: column number from 0, unit: "s" | "min" | "h" | "iso" }' });
+  }
+  const columns = value['columns'];
+  if (!Array.isArray(columns)) errors.push({ field: `${prefix}.columns`, message: 'columns must be a list of { index, channel, unit, reference?, instrumentId? }' });
+  else {
+    columns.forEach((c, k) => {
+      const at = `${prefix}.columns[${k}]`;
+      if (!isObject(c) || !isIndex(c['index']) || typeof c['channel'] !== 'string' || typeof c['unit'] !== 'string') {
+        errors.push({ field: at, message: `${at} must be { index: column number from 0, channel, unit }` });
+        return;
+      }
+      if (c['instrumentId'] !== undefined && !Number.isInteger(c['instrumentId'])) errors.push({ field: `${at}.instrumentId`, message: 'instrumentId must be the id of a register instrument' });
+      const extra = Object.keys(c).filter((key) => !['index', 'channel', 'unit', 'reference', 'instrumentId'].includes(key));
+      if (extra.length) errors.push({ field: at, message: `unknown field(s) ${extra.join(', ')}` });
+    });
+  }
+  if (errors.length) throw badRequest(errors.map((e) => e.message).join('; '), errors);
+  return value as unknown as ImportMapping;
+}
+
+export async function parseCommitBody(body: unknown): Promise<CommitBody> {
+  if (!isObject(body)) throw badRequest('The request body must be a JSON object { mapping, target }.');
+  const extra = Object.keys(body).filter((k) => k !== 'mapping' && k !== 'target');
+  if (extra.length) throw badRequest(`Unknown field(s) ${extra.join(', ')}; send { mapping, target }.`, extra.map((field) => ({ field, message: 'unknown field' })));
+  const mapping = parseMapping(body['mapping']);
+  const target = body['target'];
+  if (isObject(target) && isObject(target['newRun']) && Object.keys(target).length === 1) {
+    if ('setup' in target['newRun']) throw badRequest('target.newRun takes projectId, title, process, runDate, gasId and apparatusId.', [{ field: 'target.newRun.setup', message: 'unknown field' }]);
+    return { mapping, target: { newRun: await validateBody(CreateRunDto, target['newRun']) } };
+  }
+  if (isObject(target) && Number.isInteger(target['runId']) && Number.isInteger(target['version']) && Object.keys(target).length === 2) {
+    return { mapping, target: { runId: target['runId'] as number, version: target['version'] as number } };
+  }
+  throw badRequest('target must be { newRun: { projectId, title, process, runDate, gasId?, apparatusId? } } or { runId, version } of one of your drafts.', [
+    { field: 'target', message: 'either newRun or runId with version' },
+  ]);
+}
+
+/** The optional form fields that come with the file. */
+export function parseUploadOptions(fields: Record<string, unknown>): CsvOptions & { sheet?: string } {
+  const errors: FieldError[] = [];
+  const text = (k: string) => (typeof fields[k] === 'string' && fields[k] !== '' ? (fields[k] as string) : undefined);
+  const delimiterRaw = text('delimiter');
+  const delimiter = delimiterRaw === 'tab' || delimiterRaw === '\\t' ? '\t' : delimiterRaw;
+  if (delimiter !== undefined && ![',', ';', '\t'].includes(delimiter)) errors.push({ field: 'delimiter', message: 'delimiter is ",", ";" or a tab' });
+  const decimal = text('decimal');
+  if (decimal !== undefined && decimal !== '.' && decimal !== ',') errors.push({ field: 'decimal', message: 'decimal is "." or ","' });
+  const sheet = text('sheet');
+  if (sheet !== undefined && sheet.length > 200) errors.push({ field: 'sheet', message: 'sheet is the name of a worksheet' });
+  const extra = Object.keys(fields).filter((k) => !['delimiter', 'decimal', 'sheet'].includes(k));
+  if (extra.length) errors.push(...extra.map((field) => ({ field, message: 'unknown field; the upload takes file, delimiter, decimal and sheet' })));
+  if (errors.length) throw badRequest(errors.map((e) => e.message).join('; '), errors);
+  return { delimiter: delimiter as Delimiter | undefined, decimal: decimal as '.' | ',' | undefined, sheet };
+}

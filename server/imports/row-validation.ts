@@ -1,0 +1,135 @@
+import { badRequest, type FieldError } from '../core/problem';
+import type { ReadingsInput } from '../runs/run-document-mapper';
+import { channelNames, type ChannelName } from '../runs/run-setup';
+import { UNITS_BY_CHANNEL } from './header-guess';
+import type { ParsedTable } from './table-builder';
+
+/** How the columns of an upload become a run's readings. */
+export interface ImportMapping {
+  time: { index: number; unit: 's' | 'min' | 'h' | 'iso' };
+  columns: Array<{ index: number; channel: ChannelName; unit: string; reference?: 'absolute' | 'gauge'; instrumentId?: number }>;
+}
+
+/** One bad cell: the spreadsheet row number, the column's header, and what is wrong. */
+export interface RowError {
+  row: number;
+  column: string;
+  index: number;
+  message: string;
+}
+
+export interface ImportSummary {
+  rows: number;
+  timeSpan: { from: number | string; to: number | string; unit: string; seconds: number } | null;
+  perChannel: Partial<Record<ChannelName, { min: number; max: number; unit: string }>>;
+}
+
+export interface RowCheck {
+  errors: RowError[];
+  errorCount: number;
+  input: ReadingsInput;
+  summary: ImportSummary;
+}
+
+export const ROW_ERROR_CAP = 500;
+
+/** Refuses a mapping that cannot be applied at all (unknown column, unit, channel twice); says which part. */
+export function checkMapping(table: ParsedTable, mapping: ImportMapping): void {
+  const errors: FieldError[] = [];
+  const width = table.headers.length;
+  const inRange = (i: number) => Number.isInteger(i) && i >= 0 && i < width;
+  if (!inRange(mapping.time.index)) errors.push({ field: 'mapping.time.index', message: `the time column must be a column index from 0 to ${width - 1}` });
+  if (!UNITS_BY_CHANNEL.time.includes(mapping.time.unit)) errors.push({ field: 'mapping.time.unit', message: 'the time unit is s, min, h or iso (date-times)' });
+  const seen = new Set<string>();
+  mapping.columns.forEach((c, k) => {
+    const at = `mapping.columns[${k}]`;
+    if (!inRange(c.index)) errors.push({ field: `${at}.index`, message: `column index ${c.index} is not in the file (0 to ${width - 1})` });
+    else if (c.index === mapping.time.index) errors.push({ field: `${at}.index`, message: `column "${table.headers[c.index]}" is already the time column` });
+    if (!channelNames.includes(c.channel)) {
+      errors.push({ field: `${at}.channel`, message: `"${c.channel}" is not a channel; channels are ${channelNames.join(', ')}` });
+      return;
+    }
+    if (seen.has(c.channel)) errors.push({ field: `${at}.channel`, message: `${c.channel} is mapped to two columns; a run has one ${c.channel} channel` });
+    seen.add(c.channel);
+    if (!UNITS_BY_CHANNEL[c.channel].includes(c.unit)) {
+      errors.push({ field: `${at}.unit`, message: `"${c.unit}" is not a ${c.channel} unit; choose one of ${UNITS_BY_CHANNEL[c.channel].join(', ')}` });
+    }
+    if (c.reference !== undefined && (c.channel !== 'pressure' || !['absolute', 'gauge'].includes(c.reference))) {
+      errors.push({ field: `${at}.reference`, message: 'reference is "absolute" or "gauge", and only for pressure' });
+    }
+  });
+  if (mapping.columns.length === 0) errors.push({ field: 'mapping.columns', message: 'map at least one column to a channel' });
+  if (errors.length) throw badRequest(`The column mapping cannot be applied: ${errors.map((e) => e.message).join('; ')}.`, errors);
+}
+
+const show = (v: unknown) => (typeof v === 'string' && v.length > 40 ? `${v.slice(0, 40)}…` : String(v));
+
+/** Checks every row against the mapping; bad cells become row errors (capped), good ones readings. */
+export function checkRows(table: ParsedTable, mapping: ImportMapping): RowCheck {
+  const errors: RowError[] = [];
+  let errorCount = 0;
+  const fail = (i: number, index: number, message: string) => {
+    errorCount += 1;
+    if (errors.length < ROW_ERROR_CAP) errors.push({ row: table.rowNumbers[i], column: table.headers[index], index, message });
+  };
+  const n = table.rowNumbers.length;
+  const t = table.columns[mapping.time.index];
+  const iso = mapping.time.unit === 'iso';
+  const timeValues: Array<number | string> = new Array(n);
+  let prev = NaN;
+  let prevRow = 0;
+  for (let i = 0; i < n; i++) {
+    const v = t[i];
+    timeValues[i] = v ?? '';
+    let key = NaN;
+    if (v === null) fail(i, mapping.time.index, 'the time is empty; every reading needs its time');
+    else if (iso) {
+      key = typeof v === 'string' ? Date.parse(v) : NaN;
+      if (!Number.isFinite(key)) fail(i, mapping.time.index, `${show(v)} is not a date-time (expected like 2026-03-14T10:15:00)`);
+    } else if (typeof v !== 'number') {
+      fail(i, mapping.time.index, Number.isFinite(Date.parse(String(v))) && /\d{4}-\d{2}-\d{2}/.test(String(v))
+        ? `${show(v)} is a date-time; choose the time unit "date-time (ISO)" for this column`
+        : `text "${show(v)}" in the time column; a number in ${mapping.time.unit} is expected`);
+    } else key = v;
+    if (!Number.isFinite(key)) continue;
+    if (Number.isFinite(prev)) {
+      if (key === prev) fail(i, mapping.time.index, `duplicate timestamp: the same time as row ${prevRow}`);
+      else if (key < prev) fail(i, mapping.time.index, `time goes backwards: earlier than row ${prevRow}`);
+    }
+    prev = key;
+    prevRow = table.rowNumbers[i];
+  }
+  const channels: ReadingsInput['channels'] = {};
+  const perChannel: ImportSummary['perChannel'] = {};
+  for (const c of mapping.columns) {
+    const col = table.columns[c.index];
+    const values: Array<number | null> = new Array(n);
+    let min = Infinity;
+    let max = -Infinity;
+    for (let i = 0; i < n; i++) {
+      const v = col[i];
+      if (v === null) values[i] = null;
+      else if (typeof v === 'number') {
+        values[i] = v;
+        if (v < min) min = v;
+        if (v > max) max = v;
+      } else {
+        values[i] = null;
+        fail(i, c.index, `text "${show(v)}" in a numeric column (${c.channel}, ${c.unit})`);
+      }
+    }
+    channels[c.channel] = { unit: c.unit, values, ...(c.reference ? { reference: c.reference } : {}), ...(c.instrumentId !== undefined ? { instrumentId: c.instrumentId } : {}) };
+    if (min <= max) perChannel[c.channel] = { min, max, unit: c.unit };
+  }
+  const first = timeValues[0];
+  const last = timeValues[n - 1];
+  const seconds = (a: number | string, b: number | string) =>
+    iso ? (Date.parse(String(b)) - Date.parse(String(a))) / 1000 : (Number(b) - Number(a)) * { s: 1, min: 60, h: 3600, iso: 1 }[mapping.time.unit];
+  const span = n > 0 ? seconds(first, last) : NaN;
+  return {
+    errors,
+    errorCount,
+    input: { time: { unit: mapping.time.unit, values: timeValues }, channels },
+    summary: { rows: n, timeSpan: Number.isFinite(span) ? { from: first, to: last, unit: mapping.time.unit, seconds: span } : null, perChannel },
+  };
+}

@@ -1,0 +1,9 @@
+import { Routes } from '@angular/router';
+
+export const apparatusRoutes: Routes = [
+  {
+    path: '',
+    title: 'Apparatus | Qwell',
+    loadComponent: () => import('./apparatus-register/apparatus-register').then((m) => m.ApparatusRegister),
+  },
+];

@@ -1,0 +1,222 @@
+import { LiveAnnouncer } from '@angular/cdk/a11y';
+import { DatePipe, JsonPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
+import { FormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatTableModule } from '@angular/material/table';
+import { ActivatedRoute, Params, Router } from '@angular/router';
+import { catchError, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
+
+import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { AuditApi } from '../audit-api';
+import {
+  AuditEvent,
+  AuditPage,
+  AuditQuery,
+  ChainCheck,
+  ENTITY_TYPES,
+  ExportFormat,
+  KNOWN_ACTIONS,
+} from '../audit.models';
+import { AUDIT_PAGE_SIZES, DEFAULT_AUDIT_QUERY, auditQueryFrom } from './audit-query';
+
+const EXPORT_FORMATS: readonly { format: ExportFormat; label: string; icon: string }[] = [
+  { format: 'xlsx', label: 'Excel (.xlsx)', icon: 'table_view' },
+  { format: 'csv', label: 'CSV', icon: 'description' },
+  { format: 'pdf', label: 'PDF report', icon: 'picture_as_pdf' },
+];
+
+/** The audit trail: filtered in the address, paged on the server, with the chain check and exports. */
+@Component({
+  selector: 'qw-audit-trail',
+  imports: [
+    DatePipe,
+    JsonPipe,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatPaginatorModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatTableModule,
+    ReactiveFormsModule,
+  ],
+  templateUrl: './audit-trail.html',
+  styleUrl: './audit-trail.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  host: { class: 'page' },
+})
+export class AuditTrail {
+  private readonly api = inject(AuditApi);
+  private readonly route = inject(ActivatedRoute);
+  private readonly router = inject(Router);
+  private readonly announcer = inject(LiveAnnouncer);
+
+  /** People who appear in the trail, for the person filter. */
+  protected readonly actors = toSignal(this.api.actors().pipe(catchError(() => of([]))), { initialValue: [] });
+
+  protected readonly columns = ['occurredAt', 'who', 'action', 'record', 'reason', 'expand'];
+  protected readonly pageSizes = AUDIT_PAGE_SIZES;
+  protected readonly actions = KNOWN_ACTIONS;
+  protected readonly entityTypes = ENTITY_TYPES;
+  protected readonly exportFormats = EXPORT_FORMATS;
+
+  protected readonly query = toSignal(this.route.queryParamMap.pipe(map(auditQueryFrom)), {
+    requireSync: true,
+  });
+  protected readonly result = signal<AuditPage | null>(null);
+  protected readonly loading = signal(true);
+  protected readonly problem = signal<ProblemDetails | null>(null);
+  protected readonly expanded = signal<number | null>(null);
+  protected readonly checking = signal(false);
+  protected readonly chain = signal<ChainCheck | null>(null);
+  protected readonly chainProblem = signal<ProblemDetails | null>(null);
+
+  protected readonly filterForm = inject(FormBuilder).group({
+    run: [null as number | null],
+    person: [null as number | null],
+    action: [''],
+    entityType: [''],
+    from: [''],
+    to: [''],
+  });
+  protected readonly exportLinks = computed(() =>
+    EXPORT_FORMATS.map((entry) => ({ ...entry, href: this.api.exportUrl(entry.format, this.query()) })),
+  );
+  protected readonly activeFilterCount = computed(() => {
+    const { page: _page, pageSize: _size, ...filters } = this.query();
+    return Object.values(filters).filter((value) => value !== null).length;
+  });
+
+  constructor() {
+    this.route.queryParamMap
+      .pipe(
+        map(auditQueryFrom),
+        distinctUntilChanged((a, b) => JSON.stringify(a) === JSON.stringify(b)),
+        tap((query) => {
+          this.loading.set(true);
+          this.expanded.set(null);
+          this.showFilters(query);
+        }),
+        // Errors are caught per request so that the next filter or page still loads.
+        switchMap((query) =>
+          this.api.list(query).pipe(
+            map((page): AuditPage | ProblemDetails => page),
+            catchError((error: unknown) => of(toProblem(error))),
+          ),
+        ),
+        takeUntilDestroyed(),
+      )
+      .subscribe((outcome) => ('items' in outcome ? this.show(outcome) : this.fail(outcome)));
+  }
+
+  protected applyFilters(): void {
+    const value = this.filterForm.getRawValue();
+    this.updateQuery({
+      run: value.run || null,
+      person: value.person || null,
+      action: value.action?.trim() || null,
+      entityType: value.entityType || null,
+      from: value.from || null,
+      to: value.to || null,
+      page: 1,
+    });
+  }
+
+  protected clearFilters(): void {
+    this.updateQuery({ ...DEFAULT_AUDIT_QUERY, pageSize: this.query().pageSize });
+  }
+
+  protected filterByPerson(event: AuditEvent): void {
+    this.updateQuery({ person: event.actorId, page: 1 });
+  }
+
+  protected turnPage(event: PageEvent): void {
+    this.updateQuery({ page: event.pageIndex + 1, pageSize: event.pageSize });
+  }
+
+  protected toggleEvent(event: AuditEvent): void {
+    this.expanded.update((id) => (id === event.id ? null : event.id));
+  }
+
+  protected verifyChain(): void {
+    this.checking.set(true);
+    this.chain.set(null);
+    this.chainProblem.set(null);
+    this.api.verify().subscribe({
+      next: (check) => {
+        this.checking.set(false);
+        this.chain.set(check);
+        void this.announcer.announce(this.chainSentence(check), 'assertive');
+      },
+      error: (error: unknown) => {
+        const problem = toProblem(error);
+        this.checking.set(false);
+        this.chainProblem.set(problem);
+        void this.announcer.announce(`The chain could not be checked. ${problem.detail}`, 'assertive');
+      },
+    });
+  }
+
+  protected emailParts(email: string | null): [string, string] {
+    const at = email?.indexOf('@') ?? -1;
+    return email && at > 0 ? [email.slice(0, at), email.slice(at)] : [email ?? '', ''];
+  }
+
+  /** One sentence that says what the check found, for the page and for screen readers alike. */
+  protected chainSentence(check: ChainCheck): string {
+    if (check.valid) {
+      return `The audit chain is intact: all ${check.checked} events checked, none altered.`;
+    }
+    const broken = check.firstBroken;
+    return broken
+      ? `The audit chain is broken at event ${broken.id}: ${broken.reason}. ${check.checked} events checked.`
+      : `The audit chain is broken. ${check.checked} events checked.`;
+  }
+
+  private showFilters(query: AuditQuery): void {
+    this.filterForm.setValue({
+      run: query.run,
+      person: query.person,
+      action: query.action ?? '',
+      entityType: query.entityType ?? '',
+      from: query.from ?? '',
+      to: query.to ?? '',
+    });
+  }
+
+  private updateQuery(change: Partial<AuditQuery>): void {
+    const next: AuditQuery = { ...this.query(), ...change };
+    const queryParams: Params = {};
+    for (const key of Object.keys(next) as (keyof AuditQuery)[]) {
+      // Defaults stay out of the address to keep links short.
+      queryParams[key] = next[key] === DEFAULT_AUDIT_QUERY[key] ? null : next[key];
+    }
+    void this.router.navigate([], { relativeTo: this.route, queryParams, queryParamsHandling: 'merge' });
+  }
+
+  private show(page: AuditPage): void {
+    this.result.set(page);
+    this.problem.set(null);
+    this.loading.set(false);
+    const first = page.total === 0 ? 0 : (page.page - 1) * page.pageSize + 1;
+    const last = Math.min(page.page * page.pageSize, page.total);
+    void this.announcer.announce(
+      page.total === 0 ? 'No audit events match.' : `Events ${first} to ${last} of ${page.total} shown.`,
+      'polite',
+    );
+  }
+
+  private fail(problem: ProblemDetails): void {
+    this.problem.set(problem);
+    this.loading.set(false);
+  }
+}

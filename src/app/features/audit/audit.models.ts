@@ -1,0 +1,105 @@
+/** One event of the append-only, hash-chained audit trail. */
+export interface AuditEvent {
+  id: number;
+  /** ISO timestamp. */
+  occurredAt: string;
+  /** null for events the system records on its own (seeding, the balance worker). */
+  actorId: number | null;
+  actorEmail: string | null;
+  /** What happened, e.g. `run.submit`. */
+  action: string;
+  /** The kind of record it touched, e.g. `run`, `instrument`. */
+  entityType: string;
+  entityId: string;
+  /** The record before and after the change; null where there is no such side. */
+  before: unknown;
+  after: unknown;
+  /** Reason given by the person, where the action asks for one. */
+  reason: string | null;
+  ip: string | null;
+  prevHash: string;
+  hash: string;
+}
+
+/** Body of `GET /api/audit`. */
+export interface AuditPage {
+  items: AuditEvent[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+/** The trail's filters and page, as they stand in the address. */
+export interface AuditQuery {
+  page: number;
+  pageSize: number;
+  /** Run id. */
+  run: number | null;
+  /** Person id of the actor. */
+  person: number | null;
+  action: string | null;
+  entityType: string | null;
+  /** ISO dates, inclusive. */
+  from: string | null;
+  to: string | null;
+}
+
+export type AuditFilters = Omit<AuditQuery, 'page' | 'pageSize'>;
+
+/** Body of `GET /api/audit/verify`. */
+export interface ChainCheck {
+  valid: boolean;
+  /** Events walked. */
+  checked: number;
+  /** The first event whose hash does not follow from the one before. */
+  firstBroken?: { id: number; reason: string };
+}
+
+export type ExportFormat = 'xlsx' | 'csv' | 'pdf';
+
+/** Actions the server records, offered as suggestions; any other text still filters. */
+export const KNOWN_ACTIONS: readonly string[] = [
+  'apparatus.create',
+  'apparatus.update',
+  'auth.account-locked',
+  'auth.sign-in',
+  'auth.sign-in-failed',
+  'auth.sign-in-refused',
+  'auth.sign-out',
+  'calibration.create',
+  'instrument.create',
+  'mail.calibration-due',
+  'person.create',
+  'person.update',
+  'project.create',
+  'project.members',
+  'run.check-failed',
+  'run.checked',
+  'run.create',
+  'run.export',
+  'run.readings-replace',
+  'run.revise',
+  'run.submit',
+  'run.update',
+  'seed.demo-lab',
+  'seed.run',
+  'signature.create',
+  'signature.refused',
+];
+
+export const ENTITY_TYPES: readonly string[] = [
+  'run',
+  'signature',
+  'instrument',
+  'apparatus',
+  'person',
+  'project',
+  'lab',
+];
+
+/** A person who appears in the trail. */
+export interface AuditActor {
+  id: number;
+  name: string;
+  email: string;
+}

@@ -1,0 +1,83 @@
+import { LiveAnnouncer } from '@angular/cdk/a11y';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { MatFormFieldHarness } from '@angular/material/form-field/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import { MatSelectHarness } from '@angular/material/select/testing';
+import { Router, provideRouter } from '@angular/router';
+
+import { SAMPLE_PREVIEW as PREVIEW } from '../import-preview-sample';
+import { ImportPreview } from '../imports.models';
+import { ImportPage } from './import-page';
+
+describe('ImportPage', () => {
+  let httpTesting: HttpTestingController;
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({ providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()] });
+    httpTesting = TestBed.inject(HttpTestingController);
+  });
+
+  afterEach(() => httpTesting.verify());
+
+  async function withPreview() {
+    const fixture = TestBed.createComponent(ImportPage);
+    await fixture.whenStable();
+    httpTesting.expectOne('/api/projects').flush({ items: [{ id: 3, code: 'GX', name: 'Gas expansion, teaching lab 2' }] });
+    httpTesting.match((r) => r.url === '/api/runs').forEach((r) => r.flush({ items: [] }));
+    const preview: ImportPreview = { ...PREVIEW, errors: [], errorCount: 0 };
+    (fixture.componentInstance as unknown as { previewArrived(p: ImportPreview): void }).previewArrived(preview);
+    await fixture.whenStable();
+    httpTesting.expectOne('/api/imports/column-maps').flush({ items: [] });
+    await fixture.whenStable();
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const project = await (await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Project' }))).getControl(MatSelectHarness);
+    await project!.open();
+    await project!.clickOptions({ text: /GX/ });
+    const title = await (await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Title' }))).getControl(MatInputHarness);
+    await title!.setValue('Isothermal expansion from PC-3');
+    const date = await (await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Run date' }))).getControl(MatInputHarness);
+    await date!.setValue('2026-03-14');
+    const el = fixture.nativeElement as HTMLElement;
+    const importButton = () => Array.from(el.querySelectorAll('button')).find((b) => b.textContent?.includes('Import'))!;
+    return { fixture, el, importButton };
+  }
+
+  it('commits the mapping as prefilled into a new draft, announces it and opens the run for editing', async () => {
+    const navigate = jest.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    const announce = jest.spyOn(TestBed.inject(LiveAnnouncer), 'announce').mockResolvedValue();
+    const { fixture, importButton } = await withPreview();
+    expect(importButton().disabled).toBe(false);
+    importButton().click();
+    const req = httpTesting.expectOne('/api/imports/12/commit');
+    expect(req.request.body).toEqual({
+      mapping: {
+        time: { index: 0, unit: 's' },
+        columns: [{ index: 1, channel: 'pressure', unit: 'psi', reference: 'gauge' }, { index: 2, channel: 'temperature', unit: 'degC' }],
+      },
+      target: { newRun: { projectId: 3, title: 'Isothermal expansion from PC-3', process: 'isothermal', runDate: '2026-03-14' } },
+    });
+    req.flush({ importId: 12, runId: 41, version: 1, readings: 2 });
+    await fixture.whenStable();
+    expect(announce).toHaveBeenCalledWith('Imported 2 readings from pc3.xlsx. The run is open for editing.');
+    expect(navigate).toHaveBeenCalledWith(['/runs', 41, 'edit']);
+  });
+
+  it('shows the problem and every row that stopped the import', async () => {
+    const { fixture, el, importButton } = await withPreview();
+    importButton().click();
+    httpTesting.expectOne('/api/imports/12/commit').flush(
+      {
+        type: 'about:blank', title: 'Bad request', status: 400,
+        detail: '1 problem(s) in the rows of "pc3.xlsx"; nothing was imported. Fix them in the file or change the mapping.',
+        rowErrors: [{ row: 5, column: 'T/°C', index: 2, message: 'text "warm" in a numeric column (temperature, degC)' }],
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await fixture.whenStable();
+    expect(el.querySelector('[role="alert"]')?.textContent).toContain('nothing was imported');
+    expect(el.querySelector('.row-errors')?.textContent?.trim()).toBe('Row 5, column "T/°C": text "warm" in a numeric column (temperature, degC)');
+  });
+});

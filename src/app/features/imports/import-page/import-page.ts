@@ -1,0 +1,108 @@
+import { LiveAnnouncer } from '@angular/cdk/a11y';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatRadioModule } from '@angular/material/radio';
+import { MatSelectModule } from '@angular/material/select';
+import { Router } from '@angular/router';
+import { HttpErrorResponse } from '@angular/common/http';
+import { catchError, of } from 'rxjs';
+
+import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ImportMappingStep } from '../import-mapping-step/import-mapping-step';
+import { ImportUpload } from '../import-upload/import-upload';
+import { ImportsApi } from '../imports-api';
+import { CommitTarget, DraftOption, ImportMapping, ImportPreview, ProjectOption, RowError } from '../imports.models';
+
+const PROCESSES = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric'] as const;
+
+/** Import a logger file: upload, map the columns, choose where the readings go, import all-or-nothing. */
+@Component({
+  selector: 'qw-import-page',
+  imports: [ImportMappingStep, ImportUpload, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatRadioModule, MatSelectModule],
+  templateUrl: './import-page.html',
+  styleUrl: './import-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  host: { class: 'page' },
+})
+export class ImportPage {
+  private readonly api = inject(ImportsApi);
+  private readonly router = inject(Router);
+  private readonly announcer = inject(LiveAnnouncer);
+
+  protected readonly processes = PROCESSES;
+  protected readonly preview = signal<ImportPreview | null>(null);
+  protected readonly mapping = signal<ImportMapping | null>(null);
+  protected readonly targetKind = signal<'new' | 'existing'>('new');
+  protected readonly projectId = signal<number | null>(null);
+  protected readonly title = signal('');
+  protected readonly process = signal<string>('isothermal');
+  protected readonly runDate = signal(new Date().toISOString().slice(0, 10));
+  protected readonly runId = signal<number | null>(null);
+  protected readonly importing = signal(false);
+  protected readonly problem = signal<ProblemDetails | null>(null);
+  protected readonly rowErrors = signal<RowError[]>([]);
+
+  protected readonly projects = toSignal(this.api.projects().pipe(catchError(() => of([] as ProjectOption[]))), { initialValue: [] });
+  protected readonly drafts = toSignal(this.api.myEditableRuns().pipe(catchError(() => of([] as DraftOption[]))), { initialValue: [] });
+
+  /** Why the Import button is not ready yet, or null when it is. */
+  protected readonly notReady = computed(() => {
+    if (!this.mapping()) return 'Finish the column mapping first.';
+    if (this.targetKind() === 'existing') return this.runId() ? null : 'Choose the draft whose readings the file replaces.';
+    if (!this.projectId()) return 'Choose the project of the new draft.';
+    if (this.title().trim().length < 3) return 'Give the new draft a title of at least 3 characters.';
+    if (!/^\d{4}-\d{2}-\d{2}$/.test(this.runDate())) return 'Give the run date.';
+    return null;
+  });
+
+  protected previewArrived(preview: ImportPreview): void {
+    this.preview.set(preview);
+    this.problem.set(null);
+    this.rowErrors.set([]);
+    if (!this.title()) this.title.set(preview.filename.replace(/\.[^.]+$/, ''));
+    this.announcer.announce(`${preview.filename} read: ${preview.summary.rows} rows, ${preview.errorCount} row problem(s).`);
+  }
+
+  /** Imports all rows; on success opens the run's entry page. */
+  importFile(): void {
+    const preview = this.preview();
+    const mapping = this.mapping();
+    if (!preview || !mapping || this.notReady()) return;
+    this.importing.set(true);
+    this.problem.set(null);
+    this.rowErrors.set([]);
+    if (this.targetKind() === 'existing') {
+      const runId = this.runId()!;
+      this.api.runVersion(runId).subscribe({
+        next: (version) => this.commit(preview, mapping, { runId, version }),
+        error: (error: unknown) => this.fail(error),
+      });
+    } else {
+      this.commit(preview, mapping, {
+        newRun: { projectId: this.projectId()!, title: this.title().trim(), process: this.process(), runDate: this.runDate() },
+      });
+    }
+  }
+
+  private commit(preview: ImportPreview, mapping: ImportMapping, target: CommitTarget): void {
+    this.api.commit(preview.importId, mapping, target).subscribe({
+      next: (result) => {
+        this.importing.set(false);
+        this.announcer.announce(`Imported ${result.readings} readings from ${preview.filename}. The run is open for editing.`);
+        void this.router.navigate(['/runs', result.runId, 'edit']);
+      },
+      error: (error: unknown) => this.fail(error),
+    });
+  }
+
+  private fail(error: unknown): void {
+    this.importing.set(false);
+    this.problem.set(toProblem(error));
+    const body = error instanceof HttpErrorResponse ? (error.error as { rowErrors?: RowError[] } | null) : null;
+    this.rowErrors.set(Array.isArray(body?.rowErrors) ? body.rowErrors : []);
+  }
+}

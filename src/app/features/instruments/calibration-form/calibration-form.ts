@@ -1,0 +1,105 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { AbstractControl, FormBuilder, ReactiveFormsModule, ValidationErrors, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { ErrorStateMatcher } from '@angular/material/core';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+
+import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { showServerFieldErrors } from '../../../shared/forms/server-field-errors';
+import { InstrumentsApi } from '../instruments-api';
+import { CalibrationRecord, NewCalibration } from '../instruments.models';
+
+/** What the dialog needs to know about the instrument being calibrated. */
+export interface CalibrationFormData {
+  id: number;
+  tag: string;
+  unit: string;
+}
+
+/** ISO dates compare correctly as strings. */
+function dueAfterCalibrated(group: AbstractControl): ValidationErrors | null {
+  const calibratedOn = group.get('calibratedOn')?.value as string;
+  const dueOn = group.get('dueOn')?.value as string;
+  return calibratedOn && dueOn && dueOn <= calibratedOn ? { dueNotAfter: true } : null;
+}
+
+/** Dialog that adds a calibration certificate; closes with the stored calibration. */
+@Component({
+  selector: 'qw-calibration-form',
+  imports: [
+    MatButtonModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    ReactiveFormsModule,
+  ],
+  templateUrl: './calibration-form.html',
+  styleUrl: './calibration-form.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class CalibrationForm {
+  private readonly api = inject(InstrumentsApi);
+  private readonly dialogRef = inject<MatDialogRef<CalibrationForm, CalibrationRecord>>(MatDialogRef);
+  protected readonly instrument = inject<CalibrationFormData>(MAT_DIALOG_DATA);
+
+  protected readonly form = inject(FormBuilder).nonNullable.group(
+    {
+      calibratedOn: ['', Validators.required],
+      dueOn: ['', Validators.required],
+      certificate: ['', [Validators.required, Validators.minLength(2), Validators.maxLength(100)]],
+      expandedUncertainty: [null as number | null, [Validators.required, Validators.min(0)]],
+      coverageFactor: [2 as number | null, [Validators.required, Validators.min(1)]],
+      offset: [null as number | null],
+      gain: [null as number | null],
+      notes: ['', Validators.maxLength(2000)],
+    },
+    { validators: dueAfterCalibrated },
+  );
+  /** The order error belongs to the group; this shows it on the due-date field. */
+  protected readonly dueMatcher: ErrorStateMatcher = {
+    isErrorState: (control) =>
+      !!control && control.touched && (control.invalid || this.form.hasError('dueNotAfter')),
+  };
+  protected readonly saving = signal(false);
+  protected readonly problem = signal<ProblemDetails | null>(null);
+  protected readonly otherMessages = signal<string[]>([]);
+
+  protected saveCalibration(): void {
+    this.form.markAllAsTouched();
+    if (this.form.invalid || this.saving()) {
+      return;
+    }
+    this.saving.set(true);
+    this.problem.set(null);
+    this.api.addCalibration(this.instrument.id, this.body()).subscribe({
+      next: (calibration) => this.dialogRef.close(calibration),
+      error: (error: unknown) => {
+        const problem = toProblem(error);
+        this.saving.set(false);
+        this.problem.set(problem);
+        this.otherMessages.set(showServerFieldErrors(this.form, problem));
+      },
+    });
+  }
+
+  private body(): NewCalibration {
+    const value = this.form.getRawValue();
+    const corrections = {
+      ...(value.offset !== null ? { offset: value.offset } : {}),
+      ...(value.gain !== null ? { gain: value.gain } : {}),
+    };
+    return {
+      calibratedOn: value.calibratedOn,
+      dueOn: value.dueOn,
+      certificate: value.certificate.trim(),
+      expandedUncertainty: value.expandedUncertainty ?? 0,
+      coverageFactor: value.coverageFactor ?? 2,
+      ...(Object.keys(corrections).length ? { corrections } : {}),
+      ...(value.notes.trim() ? { notes: value.notes.trim() } : {}),
+    };
+  }
+}

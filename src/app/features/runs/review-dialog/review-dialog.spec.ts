@@ -1,0 +1,158 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { ComponentFixture, TestBed } from '@angular/core/testing';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldHarness } from '@angular/material/form-field/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import { MatSelectHarness } from '@angular/material/select/testing';
+
+import { BalanceResult, REVIEW_MEANINGS, ReviewAction } from '../runs.models';
+import { ReviewDialog, ReviewDialogData } from './review-dialog';
+
+function resultWith(verdict: BalanceResult['verdict'], En: number): BalanceResult {
+  return {
+    verdict,
+    En,
+    residual: { r: -36.00798, u: 13.825, U: 27.6506, k: 2 },
+  } as BalanceResult;
+}
+
+describe('ReviewDialog', () => {
+  let fixture: ComponentFixture<ReviewDialog>;
+  let loader: HarnessLoader;
+  let httpTesting: HttpTestingController;
+  let close: jest.Mock;
+
+  async function open(action: ReviewAction, verdict: BalanceResult['verdict'] = 'closes'): Promise<void> {
+    close = jest.fn();
+    const data: ReviewDialogData = {
+      runId: 7,
+      code: 'R-2026-0007',
+      title: 'Bath calorimeter check',
+      version: 4,
+      action,
+      result: resultWith(verdict, verdict === 'breaks' ? 1.3 : 0.4),
+    };
+    TestBed.configureTestingModule({
+      providers: [
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: MAT_DIALOG_DATA, useValue: data },
+        { provide: MatDialogRef, useValue: { close } },
+      ],
+    });
+    httpTesting = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(ReviewDialog);
+    loader = TestbedHarnessEnvironment.loader(fixture);
+    await fixture.whenStable();
+  }
+
+  afterEach(() => httpTesting.verify());
+
+  const text = () => (fixture.nativeElement as HTMLElement).textContent ?? '';
+  const password = () => loader.getHarness(MatInputHarness.with({ selector: '[type="password"]' }));
+  const reason = () => loader.getHarness(MatInputHarness.with({ selector: 'textarea' }));
+  const signButton = () => loader.getHarness(MatButtonHarness.with({ text: /^Sign and/ }));
+
+  it('shows the verdict, En and r ± U up front', async () => {
+    await open('approve', 'breaks');
+    expect(fixture.nativeElement.querySelector('qw-verdict-display')?.textContent).toContain('Breaks');
+    expect(text()).toContain('= 1.30');
+    expect(text()).toContain('r = \u221236 ± 28 J (k = 2)');
+  });
+
+  it.each([
+    ['approve', REVIEW_MEANINGS.approve],
+    ['return', REVIEW_MEANINGS.return],
+    ['reject', REVIEW_MEANINGS.reject],
+  ] as const)('offers only the meanings the server accepts for %s', async (action, meanings) => {
+    await open(action);
+    const select = await loader.getHarness(MatSelectHarness);
+    await select.open();
+    const options = await select.getOptions();
+    expect(await Promise.all(options.map((option) => option.getText()))).toEqual([...meanings]);
+  });
+
+  it('asks for a justification of 20 characters before approving a breaking run', async () => {
+    await open('approve', 'breaks');
+    const field = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: /Justification/ }));
+    expect(field).toBeTruthy();
+
+    await (await password()).setValue('secret-pass');
+    const select = await loader.getHarness(MatSelectHarness);
+    await select.open();
+    await select.clickOptions({ text: REVIEW_MEANINGS.approve[0] });
+    await (await reason()).setValue('Too short.');
+    await (await signButton()).click();
+
+    httpTesting.expectNone('/api/runs/7/approve');
+    expect(text()).toContain('Write at least 20 characters saying why this run should be approved.');
+
+    await (await reason()).setValue('Heat leak known from the cooling curve of BC-1.');
+    await (await signButton()).click();
+    const request = httpTesting.expectOne('/api/runs/7/approve');
+    expect(request.request.body).toEqual({
+      version: 4,
+      password: 'secret-pass',
+      meaning: REVIEW_MEANINGS.approve[0],
+      reason: 'Heat leak known from the cooling curve of BC-1.',
+    });
+    request.flush({ state: 'approved' });
+    expect(close).toHaveBeenCalledWith('approve');
+  });
+
+  it('posts a return with the version read, the password, the only meaning and the reason', async () => {
+    await open('return');
+    await (await password()).setValue('pa55word!');
+    await (await reason()).setValue('  Ambient pressure is missing.  ');
+    await (await signButton()).click();
+
+    const request = httpTesting.expectOne('/api/runs/7/return');
+    expect(request.request.method).toBe('POST');
+    expect(request.request.body).toEqual({
+      version: 4,
+      password: 'pa55word!',
+      meaning: REVIEW_MEANINGS.return[0],
+      reason: 'Ambient pressure is missing.',
+    });
+    request.flush({ state: 'returned' });
+    expect(close).toHaveBeenCalledWith('return');
+  });
+
+  it("shows the server's 401 detail inline, clears the password and stays open", async () => {
+    await open('reject');
+    await (await password()).setValue('wrong');
+    await (await reason()).setValue('Readings copied from another run.');
+    await (await signButton()).click();
+
+    httpTesting.expectOne('/api/runs/7/reject').flush(
+      { title: 'Unauthorized', status: 401, detail: 'That password is not right. Your signature was not recorded.' },
+      { status: 401, statusText: 'Unauthorized' },
+    );
+    await fixture.whenStable();
+
+    expect(fixture.nativeElement.querySelector('[role="alert"]')?.textContent).toContain(
+      'That password is not right. Your signature was not recorded.',
+    );
+    expect(await (await password()).getValue()).toBe('');
+    expect(close).not.toHaveBeenCalled();
+  });
+
+  it('tells the reviewer to reload when the run changed meanwhile (409)', async () => {
+    await open('return');
+    await (await password()).setValue('pa55word!');
+    await (await reason()).setValue('Units of the volume channel.');
+    await (await signButton()).click();
+
+    httpTesting.expectOne('/api/runs/7/return').flush(
+      { title: 'Conflict', status: 409, detail: 'Run R-2026-0007 changed since you read it (version 5).' },
+      { status: 409, statusText: 'Conflict' },
+    );
+    await fixture.whenStable();
+
+    expect(fixture.nativeElement.querySelector('[role="alert"]')?.textContent).toContain('reload the run');
+  });
+});

@@ -1,0 +1,120 @@
+import { DecimalPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+
+import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { WithUncertaintyPipe } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
+import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
+import { RunsApi } from '../runs-api';
+import { BalanceResult, REVIEW_MEANINGS, ReviewAction, SignatureRequest } from '../runs.models';
+
+/** What the dialog signs. */
+export interface ReviewDialogData {
+  runId: number;
+  code: string;
+  title: string;
+  /** The version the reviewer read; the server refuses the signature if the run changed since. */
+  version: number;
+  action: ReviewAction;
+  result: BalanceResult;
+}
+
+/** Shortest reason the server takes for returning or rejecting, and for approving a breaking balance. */
+export const MIN_REASON = 5;
+export const MIN_JUSTIFICATION = 20;
+
+const ACTION_WORDS: Readonly<Record<ReviewAction, { title: string; button: string }>> = {
+  approve: { title: 'Approve', button: 'Sign and approve' },
+  return: { title: 'Return for correction', button: 'Sign and return' },
+  reject: { title: 'Reject', button: 'Sign and reject' },
+};
+
+/** The electronic signature of a review decision: the verdict up front, then password, meaning and reason. */
+@Component({
+  selector: 'qw-review-dialog',
+  imports: [
+    DecimalPipe,
+    MatButtonModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    ReactiveFormsModule,
+    VerdictDisplay,
+    WithUncertaintyPipe,
+  ],
+  templateUrl: './review-dialog.html',
+  styleUrl: './review-dialog.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ReviewDialog {
+  private readonly api = inject(RunsApi);
+  private readonly dialogRef = inject<MatDialogRef<ReviewDialog, ReviewAction>>(MatDialogRef);
+  protected readonly data = inject<ReviewDialogData>(MAT_DIALOG_DATA);
+
+  protected readonly words = ACTION_WORDS[this.data.action];
+  protected readonly meanings = REVIEW_MEANINGS[this.data.action];
+  /** Approving a balance that breaks is allowed only with a written justification. */
+  protected readonly needsJustification = this.data.action === 'approve' && this.data.result.verdict === 'breaks';
+  protected readonly minReason =
+    this.needsJustification ? MIN_JUSTIFICATION : this.data.action === 'approve' ? 0 : MIN_REASON;
+  protected readonly reasonLabel = this.needsJustification
+    ? 'Justification'
+    : this.data.action === 'approve'
+      ? 'Comment (optional)'
+      : 'Reason';
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    password: ['', Validators.required],
+    meaning: [this.meanings.length === 1 ? this.meanings[0] : '', Validators.required],
+    reason: ['', this.minReason > 0 ? [Validators.required, minTrimmed(this.minReason)] : []],
+  });
+
+  protected readonly sending = signal(false);
+  protected readonly problem = signal<ProblemDetails | null>(null);
+  protected readonly fieldProblems = computed(() => this.problem()?.errors ?? []);
+
+  protected sign(): void {
+    if (this.form.invalid || this.sending()) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const { password, meaning, reason } = this.form.getRawValue();
+    const body: SignatureRequest = { version: this.data.version, password, meaning };
+    if (reason.trim()) {
+      body.reason = reason.trim();
+    }
+    this.sending.set(true);
+    this.problem.set(null);
+    this.api.review(this.data.runId, this.data.action, body).subscribe({
+      next: () => this.dialogRef.close(this.data.action),
+      error: (error: unknown) => {
+        const problem = toProblem(error);
+        this.problem.set(
+          problem.status === 409
+            ? { ...problem, detail: `${problem.detail} Close this dialog and reload the run before you sign.` }
+            : problem,
+        );
+        this.sending.set(false);
+        // A refused password is never kept in the form.
+        if (problem.status === 401) {
+          this.form.controls.password.reset('');
+        }
+      },
+    });
+  }
+}
+
+function minTrimmed(min: number) {
+  return (control: { value: string }) =>
+    control.value.trim().length >= min ? null : { minTrimmed: { min, actual: control.value.trim().length } };
+}

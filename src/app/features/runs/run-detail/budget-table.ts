@@ -1,0 +1,68 @@
+import { DecimalPipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { MatTableModule } from '@angular/material/table';
+
+import { BudgetEntry } from '../runs.models';
+
+/** The uncertainty budget of r, largest share of u²(r) first. */
+@Component({
+  selector: 'qw-budget-table',
+  imports: [DecimalPipe, MatTableModule],
+  template: `
+    <div class="table-scroll">
+      <table mat-table [dataSource]="rows()" aria-label="Uncertainty budget of the residual r">
+        <ng-container matColumnDef="source">
+          <th mat-header-cell *matHeaderCellDef>Source</th>
+          <td mat-cell *matCellDef="let row">{{ row.source }}</td>
+        </ng-container>
+        <ng-container matColumnDef="distribution">
+          <th mat-header-cell *matHeaderCellDef>Distribution</th>
+          <td mat-cell *matCellDef="let row">{{ row.distribution }}</td>
+        </ng-container>
+        <ng-container matColumnDef="u">
+          <th mat-header-cell *matHeaderCellDef class="number">Standard uncertainty u</th>
+          <td mat-cell *matCellDef="let row" class="number">{{ scientific(row.u) }} {{ row.unit === '1' ? '' : row.unit }}</td>
+        </ng-container>
+        <ng-container matColumnDef="sensitivity">
+          <th mat-header-cell *matHeaderCellDef class="number">Sensitivity ∂r/∂x</th>
+          <td mat-cell *matCellDef="let row" class="number">{{ scientific(row.sensitivity) }} J{{ row.unit === '1' ? '' : '/' + row.unit }}</td>
+        </ng-container>
+        <ng-container matColumnDef="share">
+          <th mat-header-cell *matHeaderCellDef>Share of u²(r)</th>
+          <td mat-cell *matCellDef="let row">
+            <span class="share">
+              <span class="share-value">{{ row.share * 100 | number: '1.1-1' }} %</span>
+              <span class="share-track" aria-hidden="true"><span class="share-bar" [style.width.%]="row.share * 100"></span></span>
+            </span>
+          </td>
+        </ng-container>
+        <tr mat-header-row *matHeaderRowDef="columns"></tr>
+        <tr mat-row *matRowDef="let row; columns: columns"></tr>
+      </table>
+    </div>
+  `,
+  styles: `
+    table { width: 100%; }
+    .mat-column-source { min-width: 12rem; }
+    .number { text-align: end; font-variant-numeric: tabular-nums; white-space: nowrap; }
+    .share { display: flex; align-items: center; gap: 0.5rem; min-width: 10rem; }
+    .share-value { width: 3.5rem; text-align: end; font-variant-numeric: tabular-nums; }
+    .share-track { flex: 1; height: 0.5rem; border-radius: 0.25rem; background: var(--mat-sys-surface-container-high); }
+    .share-bar { display: block; height: 100%; border-radius: 0.25rem; background: var(--mat-sys-primary); }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class BudgetTable {
+  readonly budget = input.required<readonly BudgetEntry[]>();
+
+  protected readonly columns = ['source', 'distribution', 'u', 'sensitivity', 'share'];
+  protected readonly rows = computed(() => [...this.budget()].sort((a, b) => b.share - a.share));
+
+  /** Three significant digits; powers of ten outside 0.001 … 100 000 so no value reads as 0. */
+  protected scientific(x: number): string {
+    if (x === 0) {
+      return '0';
+    }
+    return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e5 ? String(Number(x.toPrecision(3))) : x.toExponential(2);
+  }
+}

@@ -1,0 +1,70 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+
+import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { RunsApi } from '../runs-api';
+
+/** Asks why an approved run is corrected, then opens the new draft revision; closes with its id. */
+@Component({
+  selector: 'qw-correction-dialog',
+  imports: [MatButtonModule, MatDialogModule, MatFormFieldModule, MatIconModule, MatInputModule, ReactiveFormsModule],
+  template: `
+    <h2 mat-dialog-title>Correct {{ data.code }}</h2>
+    <form [formGroup]="form" (ngSubmit)="open()" novalidate>
+      <mat-dialog-content>
+        <p>
+          The approved revision stays as it is and readable. A new draft revision is made from it for you to correct
+          and submit again.
+        </p>
+        <mat-form-field appearance="outline">
+          <mat-label>Why this run needs a correction</mat-label>
+          <textarea matInput formControlName="reason" rows="3" required></textarea>
+          <mat-hint>At least 5 characters; kept in the run's history.</mat-hint>
+          @if (form.controls.reason.invalid) {
+            <mat-error>Write at least 5 characters saying what is corrected and why.</mat-error>
+          }
+        </mat-form-field>
+        @if (problem(); as problem) {
+          <div class="page-error" role="alert"><mat-icon aria-hidden="true">error</mat-icon><span>{{ problem.detail }}</span></div>
+        }
+      </mat-dialog-content>
+      <mat-dialog-actions align="end">
+        <button mat-button type="button" mat-dialog-close>Cancel</button>
+        <button mat-flat-button type="submit" [disabled]="sending()">Start the correction</button>
+      </mat-dialog-actions>
+    </form>
+  `,
+  styles: `mat-form-field { width: 100%; } mat-dialog-content { max-width: 32rem; }`,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class CorrectionDialog {
+  private readonly api = inject(RunsApi);
+  private readonly dialogRef = inject<MatDialogRef<CorrectionDialog, number>>(MatDialogRef);
+  protected readonly data = inject<{ runId: number; code: string }>(MAT_DIALOG_DATA);
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    reason: ['', [Validators.required, (control: { value: string }) => (control.value.trim().length >= 5 ? null : { short: true })]],
+  });
+  protected readonly sending = signal(false);
+  protected readonly problem = signal<ProblemDetails | null>(null);
+
+  protected open(): void {
+    if (this.form.invalid || this.sending()) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.sending.set(true);
+    this.api.revise(this.data.runId, this.form.getRawValue().reason.trim()).subscribe({
+      next: (revision) => this.dialogRef.close(revision.id),
+      error: (error: unknown) => {
+        this.problem.set(toProblem(error));
+        this.sending.set(false);
+      },
+    });
+  }
+}

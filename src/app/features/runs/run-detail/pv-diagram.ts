@@ -1,0 +1,187 @@
+import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input, signal } from '@angular/core';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import type { ChartData, ChartOptions, ScriptableContext } from 'chart.js';
+import { BaseChartDirective } from 'ng2-charts';
+
+import { GammaChoice, PvPoint, arrowStep, idealCurve, measuredPath } from './pv-curves';
+import { RUN_CHARTS, themeColor, withAlpha } from './run-charts';
+
+type Layer = 'path' | 'arrows' | 'area' | 'isotherm' | 'adiabat';
+
+/** The measured P–V path with its direction, the work area under it, and ideal curves through the first state. */
+@Component({
+  selector: 'qw-pv-diagram',
+  imports: [BaseChartDirective, MatCheckboxModule],
+  providers: [RUN_CHARTS],
+  template: `
+    <fieldset class="layers">
+      <legend class="cdk-visually-hidden">Show on the diagram</legend>
+      @for (layer of layers; track layer.key) {
+        <mat-checkbox [checked]="shown()[layer.key]" (change)="toggle(layer.key, $event.checked)">
+          {{ layer.label }}
+        </mat-checkbox>
+      }
+    </fieldset>
+    <div class="chart">
+      <canvas baseChart type="line" [data]="data()" [options]="options()" role="img" [attr.aria-label]="summary()"></canvas>
+    </div>
+    <p class="note">
+      Pressure in kPa (absolute) against volume in L. The shaded area under the path is the work the gas does,
+      W = ∫P dV. Ideal curves pass through the first reading; the adiabat uses γ = {{ gamma().gamma.toFixed(3) }}
+      ({{ gamma().source }}).
+    </p>
+  `,
+  styles: `
+    .layers { display: flex; flex-wrap: wrap; gap: 0 1rem; border: 0; margin: 0 0 0.5rem; padding: 0; }
+    .chart { position: relative; height: 22rem; }
+    .note { font: var(--mat-sys-body-medium); color: var(--mat-sys-on-surface-variant); }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class PvDiagram {
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
+
+  /** Absolute pressure, Pa, per reading. */
+  readonly pressure = input.required<readonly number[]>();
+  /** Volume, m³, per reading. */
+  readonly volume = input.required<readonly number[]>();
+  readonly gamma = input.required<GammaChoice>();
+
+  protected readonly layers: readonly { key: Layer; label: string }[] = [
+    { key: 'path', label: 'Measured path' },
+    { key: 'arrows', label: 'Direction arrows' },
+    { key: 'area', label: 'Work area' },
+    { key: 'isotherm', label: 'Ideal isotherm' },
+    { key: 'adiabat', label: 'Ideal adiabat' },
+  ];
+  protected readonly shown = signal<Record<Layer, boolean>>({
+    path: true,
+    arrows: true,
+    area: true,
+    isotherm: true,
+    adiabat: true,
+  });
+
+  private readonly colors = {
+    path: themeColor(this.host, '--mat-sys-primary', 'rgb(40, 90, 160)'),
+    isotherm: themeColor(this.host, '--mat-sys-tertiary', 'rgb(120, 80, 150)'),
+    adiabat: themeColor(this.host, '--mat-sys-on-surface-variant', 'rgb(80, 80, 80)'),
+    grid: themeColor(this.host, '--mat-sys-outline-variant', 'rgb(200, 200, 200)'),
+    text: themeColor(this.host, '--mat-sys-on-surface', 'rgb(20, 20, 20)'),
+  };
+
+  private readonly path = computed(() => measuredPath(this.pressure(), this.volume()));
+
+  protected readonly summary = computed(() => {
+    const path = this.path();
+    if (path.length === 0) {
+      return 'P–V diagram: no readings';
+    }
+    const first = path[0];
+    const last = path[path.length - 1];
+    return (
+      `P–V diagram: ${path.length} readings, from ${first.y.toPrecision(4)} kPa at ${first.x.toPrecision(4)} L ` +
+      `to ${last.y.toPrecision(4)} kPa at ${last.x.toPrecision(4)} L`
+    );
+  });
+
+  protected readonly data = computed((): ChartData<'line', PvPoint[]> => {
+    const path = this.path();
+    const shown = this.shown();
+    const xs = path.map((point) => point.x);
+    const vMin = Math.min(...xs);
+    const vMax = Math.max(...xs);
+    const step = arrowStep(path.length);
+    const isArrow = (index: number) => shown.arrows && index > 0 && index < path.length - 1 && index % step === 0;
+    const canCompare = path.length > 1 && vMax > vMin && path[0].x > 0;
+    return {
+      datasets: [
+        {
+          label: 'Measured path',
+          data: path,
+          hidden: !shown.path,
+          borderColor: this.colors.path,
+          backgroundColor: withAlpha(this.colors.path, 0.15),
+          borderWidth: 2,
+          fill: shown.area ? 'origin' : false,
+          tension: 0,
+          pointStyle: 'triangle',
+          pointRadius: (context: ScriptableContext<'line'>) => (isArrow(context.dataIndex) ? 6 : 0),
+          pointHoverRadius: 4,
+          pointBackgroundColor: this.colors.path,
+          pointRotation: (context: ScriptableContext<'line'>) => arrowAngle(context, path),
+        },
+        {
+          label: 'Ideal isotherm (P·V = const)',
+          data: canCompare ? idealCurve(path[0], vMin, vMax, 1) : [],
+          hidden: !shown.isotherm,
+          borderColor: this.colors.isotherm,
+          borderDash: [8, 4],
+          borderWidth: 1.5,
+          pointRadius: 0,
+          fill: false,
+        },
+        {
+          label: `Ideal adiabat (P·V^γ = const)`,
+          data: canCompare ? idealCurve(path[0], vMin, vMax, this.gamma().gamma) : [],
+          hidden: !shown.adiabat,
+          borderColor: this.colors.adiabat,
+          borderDash: [2, 3],
+          borderWidth: 1.5,
+          pointRadius: 0,
+          fill: false,
+        },
+      ],
+    };
+  });
+
+  protected readonly options = computed(
+    (): ChartOptions<'line'> => ({
+      responsive: true,
+      maintainAspectRatio: false,
+      animation: false,
+      parsing: false,
+      interaction: { mode: 'nearest', intersect: false },
+      scales: {
+        x: {
+          type: 'linear',
+          title: { display: true, text: 'V / L', color: this.colors.text },
+          grid: { color: this.colors.grid },
+          ticks: { color: this.colors.text },
+        },
+        y: {
+          type: 'linear',
+          beginAtZero: true,
+          title: { display: true, text: 'P / kPa', color: this.colors.text },
+          grid: { color: this.colors.grid },
+          ticks: { color: this.colors.text },
+        },
+      },
+      plugins: {
+        // Our own checkboxes show and hide the layers; the legend only names the line styles.
+        legend: { labels: { color: this.colors.text, usePointStyle: false }, onClick: () => undefined },
+        tooltip: {
+          callbacks: {
+            label: (item) => `${item.dataset.label}: ${item.parsed.y?.toPrecision(5)} kPa at ${item.parsed.x?.toPrecision(5)} L`,
+          },
+        },
+      },
+    }),
+  );
+
+  protected toggle(layer: Layer, on: boolean): void {
+    this.shown.update((shown) => ({ ...shown, [layer]: on }));
+  }
+}
+
+/** Rotation (degrees, clockwise from up) of the arrow at a point, along the path on screen. */
+function arrowAngle(context: ScriptableContext<'line'>, path: readonly PvPoint[]): number {
+  const i = context.dataIndex;
+  const { x, y } = context.chart.scales;
+  if (!x || !y || i <= 0 || i >= path.length - 1) {
+    return 0;
+  }
+  const dx = x.getPixelForValue(path[i + 1].x) - x.getPixelForValue(path[i - 1].x);
+  const dy = y.getPixelForValue(path[i + 1].y) - y.getPixelForValue(path[i - 1].y);
+  return (Math.atan2(dx, -dy) * 180) / Math.PI;
+}

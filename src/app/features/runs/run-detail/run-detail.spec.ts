@@ -1,0 +1,173 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { provideRouter } from '@angular/router';
+import { RouterTestingHarness } from '@angular/router/testing';
+
+import { routes } from '../../../app.routes';
+import { Auth } from '../../../core/auth/auth';
+import { Role } from '../../../core/auth/auth.models';
+import { BalanceResponse, BalanceResult, RunRecord } from '../runs.models';
+
+// Invented demo figures of the Harrowgate lab; only their display is under test here.
+const run: RunRecord = {
+  id: 2,
+  code: 'R-2026-0002',
+  revision: 1,
+  title: 'Rapid adiabatic expansion of dry air',
+  process: 'adiabatic',
+  state: 'submitted',
+  version: 3,
+  verdict: 'closes',
+  runDate: '2026-03-14',
+  returnReason: null,
+  authorId: 1,
+  authorName: 'Lena Okonkwo',
+  projectName: 'Gas expansion, teaching lab 2',
+  setup: {
+    gas: { model: 'species', species: 'air' },
+    channels: { pressure: { unit: 'kPa' }, temperature: { unit: 'K' } },
+    apparatus: { name: 'Piston cell PC-3', ratedPressure: { value: 10, unit: 'bar' } },
+  },
+  readings: {
+    count: 3,
+    time: [0, 0.05, 0.1],
+    pressure: [99510, 98350, 97220],
+    volume: [null, null, null],
+    displacement: [0.1, 0.10167, 0.10334],
+    temperature: [300, 299.01, 298.02],
+    voltage: [null, null, null],
+    current: [null, null, null],
+    power: [null, null, null],
+  },
+  series: { t: [0, 0.05, 0.1], P: [99510, 98350, 97220], V: [0.001, 0.00101, 0.00102], T: [300, 299.01, 298.02], power: null },
+  balance: { id: 2, runVersion: 3, verdict: 'closes', en: 0.015, computedAt: '2026-03-14T10:00:00Z', stale: false },
+  signatures: [],
+  revisions: [{ id: 2, revision: 1, state: 'submitted', revisionReason: null, createdAt: '2026-03-14T09:00:00Z' }],
+};
+
+const result = {
+  engineVersion: '1.0.0',
+  gas: 'air',
+  process: { claimed: 'adiabatic', index: null },
+  work: { measured: 60.49089, u: 0.1288, U: 0.2576, model: 60.569, modelFormula: '', gap: -0.078 },
+  heat: { electrical: 0, leak: 0, wall: 0, total: 0, u: 0, U: 0 },
+  internalEnergy: { value: -60.496888, u: 0.15174, U: 0.30347, method: 'n·∫Cv dT' },
+  residual: { r: -0.005998, u: 0.19903, U: 0.39806, k: 2 },
+  correlations: { W_Q: 0, W_dU: 0, Q_dU: 0 },
+  En: 0.01507,
+  verdict: 'closes',
+  indeterminateLimit: 12.099,
+  budget: [
+    { source: 'pressure offset', group: 'PG-2', kind: 'systematic', distribution: 'rectangular', unit: 'Pa', u: 115.47, sensitivity: 0.001, contribution: 0.0135, share: 0.34 },
+    { source: 'amount n', group: 'amount', kind: 'constant', distribution: 'normal', unit: 'mol', u: 0.0001, sensitivity: -1512, contribution: 0.0229, share: 0.58 },
+  ],
+  monteCarlo: null,
+  polytropicFit: null,
+  flags: [{ code: 'TIME_GAP', reading: 2, message: 'A gap of 5 s before this reading.' }],
+  hints: [],
+  temperatures: { T1: 300, T2: 227.11 },
+  amount: { n: 0.04, source: 'given' },
+  inputHash: 'abc',
+} as unknown as BalanceResult;
+
+const balance: BalanceResponse = { runVersion: 3, currentRunVersion: 3, stale: false, computedAt: '2026-03-14T10:00:00Z', result };
+
+describe('RunDetail', () => {
+  // The first test compiles the lazy run page and its charts; on a busy 2-core machine that can pass 5 s.
+  jest.setTimeout(20_000);
+
+  let httpTesting: HttpTestingController;
+  let harness: RouterTestingHarness;
+
+  async function openAs(role: Role, personId: number): Promise<void> {
+    TestBed.configureTestingModule({
+      providers: [provideRouter(routes), provideHttpClient(), provideHttpClientTesting()],
+    });
+    httpTesting = TestBed.inject(HttpTestingController);
+    TestBed.inject(Auth).restore().subscribe();
+    httpTesting.expectOne('/api/auth/me').flush({ person: { id: personId, email: `${role}@lab.test`, name: 'Someone', role } });
+    harness = await RouterTestingHarness.create();
+    await harness.navigateByUrl('/runs/2');
+  }
+
+  async function answer(withBalance: boolean): Promise<void> {
+    httpTesting.expectOne('/api/runs/2').flush(run);
+    const balanceRequest = httpTesting.expectOne('/api/runs/2/balance');
+    if (withBalance) {
+      balanceRequest.flush(balance);
+    } else {
+      balanceRequest.flush(
+        { title: 'Not found', status: 404, detail: 'Run R-2026-0002 is being checked; its result appears here shortly.' },
+        { status: 404, statusText: 'Not Found' },
+      );
+    }
+    httpTesting.expectOne('/api/runs/2/history').flush({ items: [] });
+    await harness.fixture.whenStable();
+  }
+
+  afterEach(() => httpTesting.verify());
+
+  const page = () => harness.fixture.nativeElement as HTMLElement;
+  const buttons = () => Array.from(page().querySelectorAll('button')).map((button) => button.textContent?.trim() ?? '');
+
+  it('shows the summary, the verdict as icon and word, and ΔU beside Q − W as x ± U', async () => {
+    await openAs('investigator', 3);
+    await answer(true);
+
+    expect(page().querySelector('h1')?.textContent).toContain('R-2026-0002');
+    expect(page().querySelector('h1')?.textContent).toContain('Rapid adiabatic expansion of dry air');
+    const summary = page().querySelector('.summary')?.textContent ?? '';
+    for (const part of ['Submitted', 'adiabatic', 'Lena Okonkwo', 'Gas expansion, teaching lab 2', '14 Mar 2026']) {
+      expect(summary).toContain(part);
+    }
+    const card = page().querySelector('qw-balance-card') as HTMLElement;
+    expect(card.querySelector('qw-verdict-display')?.textContent).toContain('Closes');
+    expect(card.querySelector('qw-verdict-display mat-icon')?.textContent?.trim()).toBe('check_circle');
+    expect(card.textContent).toContain('\u221260.50 ± 0.30 J (k = 2)');
+    expect(card.textContent).toContain('\u221260.49 ± 0.26 J (k = 2)');
+    expect(card.textContent).toContain('\u22120.01 ± 0.40 J (k = 2)');
+  });
+
+  it('lists the budget largest share first, and cautions about the rated pressure', async () => {
+    await openAs('investigator', 3);
+    await answer(true);
+
+    const sources = Array.from(page().querySelectorAll('qw-budget-table tr.mat-mdc-row td:first-child')).map((cell) => cell.textContent?.trim());
+    expect(sources).toEqual(['amount n', 'pressure offset']);
+    expect(page().querySelector('qw-budget-table')?.textContent).toContain('58.0 %');
+    expect(page().querySelector('aside.safety')?.textContent?.replace(/\s+/g, ' ')).toContain('rated pressure of 10 bar');
+    expect(buttons()).toContain('Show reading 2');
+  });
+
+  it('offers approve, return and reject to an investigator who did not write the run', async () => {
+    await openAs('investigator', 3);
+    await answer(true);
+
+    expect(buttons()).toEqual(expect.arrayContaining(['verified Approve', 'undo Return for correction', 'block Reject']));
+  });
+
+  it('hides the review buttons from the author and says why', async () => {
+    await openAs('investigator', 1);
+    await answer(true);
+
+    expect(buttons().some((text) => /Approve|Reject|Return for correction/.test(text))).toBe(false);
+    expect(page().textContent).toContain('You wrote this run');
+  });
+
+  it('hides the review buttons from a technician', async () => {
+    await openAs('technician', 9);
+    await answer(true);
+
+    expect(buttons().some((text) => /Approve|Reject|Return for correction/.test(text))).toBe(false);
+  });
+
+  it("says the run is being checked when /balance answers 404, and offers no review", async () => {
+    await openAs('investigator', 3);
+    await answer(false);
+
+    expect(page().textContent).toContain('Run R-2026-0002 is being checked; its result appears here shortly.');
+    expect(page().querySelector('qw-balance-card')).toBeNull();
+    expect(buttons().some((text) => /Approve/.test(text))).toBe(false);
+  });
+});
