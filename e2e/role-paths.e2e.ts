@@ -11,16 +11,15 @@ afterEach(async () => {
   await s.close();
 });
 
-/** Opens a mat-select by keyboard and picks the option whose text matches. */
+/** Opens a mat-select from the keyboard, picks the option whose text matches, and checks it took. */
 async function choose(label: string | RegExp, option: RegExp): Promise<void> {
   const select = s.page.getByRole('combobox', { name: label });
   await select.focus();
   await s.page.keyboard.press('Enter');
   const item = s.page.getByRole('option', { name: option }).first();
-  await item.waitFor();
-  await item.focus();
-  await s.page.keyboard.press('Enter');
+  await item.click();
   await item.waitFor({ state: 'detached' });
+  expect(await select.textContent()).toMatch(option);
 }
 
 describe('a technician at the bench', () => {
@@ -57,8 +56,8 @@ describe('a technician at the bench', () => {
     expect(await page.getByLabel('Reading 5, temperature in °C').inputValue()).toBe('21.1');
     await page.getByText(/Saved \d\d:\d\d/).waitFor({ timeout: 20_000 });
     expect(page.url()).toMatch(/\/runs\/\d+\/edit$/);
-    // The pressure run carries the safety caution.
-    expect(await page.getByRole('note').filter({ hasText: /rated pressure/i }).count()).toBeGreaterThan(0);
+    // The pressure run carries the safety caution with the chosen apparatus's rating (PC-3: 1 MPa).
+    await page.getByRole('note').filter({ hasText: /rated pressure/i }).filter({ hasText: /1000 kPa|10 bar/ }).first().waitFor();
     await screenshot(page, 'run-entry-technician');
     await page.getByRole('button', { name: 'Submit for the balance check' }).focus();
     await k.press('Enter');
@@ -77,6 +76,12 @@ describe('an investigator', () => {
     await page.getByRole('heading', { level: 1, name: /R-2026-0002/ }).waitFor();
     await page.getByText('Q − W').first().waitFor();
     await screenshot(page, 'run-page-investigator');
+    // The printable report downloads with the same session.
+    const href = await page.getByRole('link', { name: 'Report (PDF)' }).getAttribute('href');
+    const pdf = await s.context.request.get(href!);
+    expect(pdf.status()).toBe(200);
+    expect(pdf.headers()['content-type']).toBe('application/pdf');
+    expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');
     await page.getByRole('button', { name: /Approve/ }).click();
     const dialog = page.getByRole('dialog');
     await dialog.getByLabel('Your password').fill(DEFAULT_DEMO_PASSWORD);

@@ -50,6 +50,11 @@ export const runs = pgTable(
   (t) => [
     uniqueIndex('runs_code_revision_idx').on(t.code, t.revision),
     index('runs_state_updated_idx').on(t.state, t.updatedAt),
+    // The list's default order (newest change first, id as tie-break) and its other sort keys.
+    // Plain ascending: scanned backwards it serves ORDER BY updated_at DESC, id DESC (NULLS FIRST).
+    index('runs_updated_idx').on(t.updatedAt, t.id),
+    index('runs_created_idx').on(t.createdAt),
+    index('runs_run_date_idx').on(t.runDate),
     index('runs_project_idx').on(t.projectId, t.updatedAt),
     index('runs_author_idx').on(t.authorId, t.updatedAt),
   ],

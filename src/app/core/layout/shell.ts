@@ -1,6 +1,6 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
 import { LiveAnnouncer } from '@angular/cdk/a11y';
-import { DOCUMENT } from '@angular/common';
+import { DOCUMENT, Location } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -10,7 +10,7 @@ import {
   signal,
   viewChild,
 } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
+import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatListModule } from '@angular/material/list';
@@ -53,13 +53,8 @@ export class Shell {
   protected readonly person = this.auth.person;
   protected readonly entries = computed(() => navigationFor(this.auth.role()));
 
-  private readonly url = toSignal(
-    this.router.events.pipe(
-      filter((event): event is NavigationEnd => event instanceof NavigationEnd),
-      map((event) => event.urlAfterRedirects),
-    ),
-    { initialValue: this.router.url },
-  );
+  /** The address, from router navigations and from pages that rewrite it in place (a new draft's first save). */
+  private readonly url = signal(this.router.url);
 
   /** The entry whose path is the longest prefix of the address: /runs/new marks "New run", not "Runs" too. */
   protected readonly activePath = computed(() => {
@@ -76,7 +71,13 @@ export class Shell {
   protected readonly signingOut = signal(false);
 
   constructor() {
-    inject(HeadingFocus).start(inject(DestroyRef));
+    const destroyRef = inject(DestroyRef);
+    inject(HeadingFocus).start(destroyRef);
+    this.router.events
+      .pipe(filter((event): event is NavigationEnd => event instanceof NavigationEnd), takeUntilDestroyed(destroyRef))
+      .subscribe((event) => this.url.set(event.urlAfterRedirects));
+    const stopListening = inject(Location).onUrlChange((url) => this.url.set(url));
+    destroyRef.onDestroy(stopListening);
   }
 
   protected toggleNavigation(): void {

@@ -97,6 +97,11 @@ export class RunsApi {
     return `/api/runs/${id}/document`;
   }
 
+  /** Address of the printable run report (PDF). */
+  reportUrl(id: number): string {
+    return `/api/runs/${id}/report.pdf`;
+  }
+
   /** Signs a review decision: approve, return for correction or reject. */
   review(id: number, action: ReviewAction, body: SignatureRequest): Observable<unknown> {
     return this.http.post<unknown>(`/api/runs/${id}/${action}`, body);

@@ -93,6 +93,7 @@ export class RunDetail {
 
   protected readonly result = computed(() => this.balance()?.result ?? null);
   protected readonly documentUrl = computed(() => this.api.documentUrl(this.run()?.id ?? 0));
+  protected readonly reportUrl = computed(() => this.api.reportUrl(this.run()?.id ?? 0));
 
   protected readonly gas = computed(() => {
     const run = this.run();
