@@ -44,3 +44,22 @@ describe('GET /api/runs/:id/balance', () => {
     expect(none.body.detail).toMatch(/checked when it is submitted/);
   });
 });
+
+describe('run document round trip', () => {
+  it('exports a stored run as a run document that POST /api/balance checks to the same numbers', async () => {
+    const quality = await clientAs(h.app, 'quality');
+    const submitted = (await quality.get('/api/runs?state=submitted&sort=code&dir=asc')).body.items[0];
+    const stored = (await quality.get(`/api/runs/${submitted.id}/balance`)).body.result;
+    const exported = await quality.get(`/api/runs/${submitted.id}/document`);
+    expect(exported.status).toBe(200);
+    expect(exported.headers['content-disposition']).toMatch(/attachment/);
+    const again = await quality.post('/api/balance', JSON.parse(exported.text));
+    expect(again.status).toBe(200);
+    // The linear results do not depend on the number of Monte Carlo draws (the seed run used more).
+    expect(again.body.verdict).toBe(stored.verdict);
+    for (const path of [['work', 'measured'], ['heat', 'total'], ['internalEnergy', 'value'], ['residual', 'r'], ['residual', 'U']] as const) {
+      expect(again.body[path[0]][path[1]]).toBeCloseTo(stored[path[0]][path[1]], 9);
+    }
+    expect(again.body.En).toBeCloseTo(stored.En, 9);
+  });
+});

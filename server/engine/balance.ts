@@ -3,7 +3,7 @@ import { sha256Canonical } from './canonical';
 import { dataQualityFlags, type Flag } from './flags';
 import { checkRange, equipartitionModel, gamma, speciesModel, type HeatCapacityModel } from './gases';
 import { breakHints, indeterminateHints, type Hint, type Outcome } from './hints';
-import { compareWithLinear, monteCarlo } from './monte-carlo';
+import { compareWithLinear, monteCarlo, type Histogram } from './monte-carlo';
 import { claimedIndex, polytropicFit } from './polytropic';
 import { propagate } from './propagation';
 import { validateRunDocument, type RunDocument, type ValidationError } from './run-document';
@@ -60,7 +60,7 @@ export interface BalanceResult {
   verdict: Verdict;
   indeterminateLimit: number;
   budget: BudgetEntry[];
-  monteCarlo: { draws: number; seed: number | string; mean: number; sd: number; low: number; high: number; coverage: number; agreesWithLinear: boolean; tolerance: number; note: string } | null;
+  monteCarlo: { draws: number; seed: number | string; mean: number; sd: number; low: number; high: number; coverage: number; agreesWithLinear: boolean; tolerance: number; note: string; histogram: Histogram } | null;
   polytropicFit: { index: number; uIndex: number; rSquared: number; points: number; claimedIndex: number | 'infinite' | null } | null;
   flags: Flag[];
   hints: Hint[];
@@ -171,7 +171,7 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
     const m = monteCarlo(model.inputs, model.residual, { draws: effective.draws, seed: effective.seed });
     const agreement = compareWithLinear(outcome.r, ur, m);
     mc = {
-      draws: m.draws, seed: m.seed, mean: m.mean, sd: m.sd, low: m.low, high: m.high, coverage: m.coverage,
+      draws: m.draws, seed: m.seed, mean: m.mean, sd: m.sd, low: m.low, high: m.high, coverage: m.coverage, histogram: m.histogram,
       agreesWithLinear: agreement.agrees, tolerance: agreement.tolerance,
       note: agreement.agrees
         ? `The Monte Carlo 95 % interval agrees with r ± 1.96·u(r) within ${agreement.tolerance.toPrecision(2)} J (JCGM 101 §8.2).`

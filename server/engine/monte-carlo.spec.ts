@@ -32,6 +32,21 @@ describe('JCGM 101:2008 §9.2, additive model Y = X1 + X2 + X3 + X4', () => {
     // JCGM 101 §8 validation says the linear (GUF) interval is not confirmed here
     expect(compareWithLinear(0, 10.1489, r).agrees).toBe(false);
   });
+  it('9.2.2 histogram: all draws counted, 0.1 % outside the binned range, peaked at 0 and symmetric', () => {
+    const r = monteCarlo(inputs('normal'), sum, { draws: DRAWS, seed: 20240601 });
+    const h = r.histogram;
+    expect(h.counts.reduce((a, b) => a + b, 0) + h.outside).toBe(DRAWS);
+    expect(h.outside / DRAWS).toBeCloseTo(0.001, 3);
+    const mode = h.counts.indexOf(Math.max(...h.counts));
+    expect(Math.abs(h.start + (mode + 0.5) * h.width)).toBeLessThan(h.width);
+    // Normal distribution: the share within ±1 s.d. (±2 here) is 0.6827 (standard normal table, common practice).
+    const within = h.counts.reduce((acc, c, i) => {
+      const centre = h.start + (i + 0.5) * h.width;
+      return Math.abs(centre) <= 2 ? acc + c : acc;
+    }, 0);
+    expect(Math.abs(within / DRAWS - 0.6827)).toBeLessThan(0.04); // bin edges do not fall exactly on ±2
+    for (let i = 0; i < 10; i++) expect(Math.abs(h.counts[i] - h.counts[h.counts.length - 1 - i])).toBeLessThan(0.1 * h.counts[i] + 60);
+  });
   it('9.2.2 validation: the linear interval is confirmed for normal inputs', () => {
     const r = monteCarlo(inputs('normal'), sum, { draws: 100_000, seed: 7 });
     expect(compareWithLinear(0, 2, r).agrees).toBe(true);

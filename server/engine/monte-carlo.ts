@@ -20,6 +20,38 @@ export interface McResult {
   /** Probabilistically symmetric coverage interval (JCGM 101 §7.7). */
   low: number;
   high: number;
+  /** The draws binned for a picture of the distribution (JCGM 101 §7.5: a histogram of the model values). */
+  histogram: Histogram;
+}
+
+export interface Histogram {
+  /** Left edge of the first bin. */
+  start: number;
+  width: number;
+  counts: number[];
+  /** Draws outside the binned range (its ends are the 0.05 % and 99.95 % quantiles). */
+  outside: number;
+}
+
+export const HISTOGRAM_BINS = 40;
+
+/** Bins sorted values between their 0.05 % and 99.95 % quantiles, so a few far draws do not flatten it. */
+export function histogramOf(sorted: Float64Array, bins = HISTOGRAM_BINS): Histogram {
+  const M = sorted.length;
+  const lo = sorted[Math.floor(0.0005 * (M - 1))];
+  const hi = sorted[Math.ceil(0.9995 * (M - 1))];
+  const width = hi > lo ? (hi - lo) / bins : 1;
+  const counts = new Array<number>(bins).fill(0);
+  let outside = 0;
+  for (let i = 0; i < M; i++) {
+    const v = sorted[i];
+    if (v < lo || v > hi) {
+      outside += 1;
+      continue;
+    }
+    counts[Math.min(bins - 1, Math.floor((v - lo) / width))] += 1;
+  }
+  return { start: lo, width, counts, outside };
 }
 
 export interface McOptions {
@@ -59,7 +91,7 @@ export function monteCarlo(inputs: readonly McInput[], model: (x: Float64Array) 
   const r = Number.isInteger((M - q) / 2) ? (M - q) / 2 : (M - q + 1) / 2;
   const low = y[Math.max(r, 1) - 1];
   const high = y[Math.min(r + q, M) - 1];
-  return { draws: M, seed: options.seed, mean, sd: Math.sqrt(ss / (M - 1)), coverage: p, low, high };
+  return { draws: M, seed: options.seed, mean, sd: Math.sqrt(ss / (M - 1)), coverage: p, low, high, histogram: histogramOf(y) };
 }
 
 /** Two-sided 95 % coverage factor of the normal distribution (JCGM 101 §5.3 compares at equal coverage). */

@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto';
+import { safeFilename } from './safe-filename';
 import { and, asc, desc, eq, inArray, isNotNull, or, type SQL } from 'drizzle-orm';
 import type { Database, DbOrTx } from '../../db/client';
 import { columnMaps, imports, people, runs, uploads } from '../../db/schema';
@@ -61,20 +62,21 @@ export class ImportsService {
   async upload(person: SessionPerson, file: UploadedFile, options: CsvOptions & { sheet?: string }, ip: string | null): Promise<ImportPreview> {
     const table = await this.parse(file, options);
     const sha256 = createHash('sha256').update(file.buffer).digest('hex');
+    const filename = safeFilename(file.originalname);
     return this.db.transaction(async (tx) => {
       const duplicateOf = await this.duplicateOf(tx, person, sha256);
       const [upload] = await tx.insert(uploads).values({
-        sha256, filename: file.originalname, mediaType: file.mimetype || 'application/octet-stream', size: file.buffer.length, content: file.buffer, uploadedBy: person.id,
+        sha256, filename, mediaType: file.mimetype || 'application/octet-stream', size: file.buffer.length, content: file.buffer, uploadedBy: person.id,
       }).returning({ id: uploads.id });
       const [imp] = await tx.insert(imports).values({ uploadId: upload.id, createdBy: person.id, parsed: table as unknown as Record<string, unknown> }).returning({ id: imports.id });
       await recordAudit(tx, {
         actorId: person.id, actorEmail: person.email, action: 'import.upload', entityType: 'import', entityId: imp.id,
-        after: { uploadId: upload.id, filename: file.originalname, sha256, size: file.buffer.length, rows: table.rowNumbers.length, duplicateOfUpload: duplicateOf?.uploadId ?? null },
+        after: { uploadId: upload.id, filename, sha256, size: file.buffer.length, rows: table.rowNumbers.length, duplicateOfUpload: duplicateOf?.uploadId ?? null },
         ip,
       });
       const suggestedColumnMap = await this.suggestMap(tx, table.headers);
       return buildPreview(table, {
-        importId: imp.id, filename: file.originalname, sha256, ...(duplicateOf ? { duplicateOf } : {}), ...(suggestedColumnMap ? { suggestedColumnMap } : {}),
+        importId: imp.id, filename, sha256, ...(duplicateOf ? { duplicateOf } : {}), ...(suggestedColumnMap ? { suggestedColumnMap } : {}),
       });
     });
   }

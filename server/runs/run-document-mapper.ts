@@ -91,6 +91,7 @@ export function documentToStorage(doc: RunDocument) {
     processIndex: doc.process.index,
     ambient: doc.ambient,
     apparatus: doc.apparatus,
+    apparatusSource: 'run',
     instruments: doc.instruments,
     time,
     channels: channelSetup,
@@ -126,7 +127,8 @@ export interface DocumentContext {
   operator: string;
 }
 
-function apparatusOf(a: DocumentContext['apparatus'], extra: RunSetup['apparatus']): Apparatus {
+function apparatusOf(a: DocumentContext['apparatus'], extra: RunSetup['apparatus'], source: RunSetup['apparatusSource']): Apparatus {
+  if (source === 'run') return { ...(extra ?? {}) };
   const q = (value: number | null | undefined, unit: string, u?: number | null) =>
     value === null || value === undefined ? undefined : { value, unit, ...(u !== null && u !== undefined ? { u } : {}) };
   const out: Apparatus = {
@@ -181,7 +183,7 @@ export function storageToDocument(ctx: DocumentContext): RunDocument {
     gas,
     ...(setup.amount ? { amount: setup.amount } : {}),
     ambient: setup.ambient ?? {},
-    apparatus: apparatusOf(ctx.apparatus, setup.apparatus),
+    apparatus: apparatusOf(ctx.apparatus, setup.apparatus, setup.apparatusSource),
     instruments: uniqueInstruments,
     readings: readingsOut as unknown as Readings,
   };

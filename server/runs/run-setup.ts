@@ -29,6 +29,11 @@ export interface RunSetup {
    * measured for this run, or the constants of an imported run document).
    */
   apparatus?: Apparatus;
+  /**
+   * 'run': the run came as a complete run document, whose apparatus values are the whole truth; the
+   * register's values for the linked apparatus are not mixed in. Default: register plus `apparatus`.
+   */
+  apparatusSource?: 'register' | 'run';
   /** Instruments described in the run itself rather than in the register. */
   instruments?: Instrument[];
   time?: { unit: 's' | 'min' | 'h' | 'iso'; origin?: string };

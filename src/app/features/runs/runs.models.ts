@@ -351,6 +351,8 @@ export interface BalanceResult {
     coverage: number;
     agreesWithLinear: boolean;
     note: string;
+    /** Absent in results stored before the engine kept one. */
+    histogram?: McHistogram;
   } | null;
   polytropicFit: { index: number; uIndex: number; rSquared: number; claimedIndex: number | 'infinite' | null } | null;
   flags: QualityFlag[];
@@ -403,3 +405,11 @@ export interface SignatureRequest {
 
 /** Roles that write runs: the new-run and edit pages let them in. */
 export const RUN_AUTHORS = ['technician', 'assistant', 'investigator'] as const;
+
+/** The Monte Carlo draws of r, binned by the engine. */
+export interface McHistogram {
+  start: number;
+  width: number;
+  counts: number[];
+  outside: number;
+}

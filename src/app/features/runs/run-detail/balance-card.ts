@@ -4,6 +4,7 @@ import { MatIconModule } from '@angular/material/icon';
 
 import { WithUncertaintyPipe, roundToUncertainty } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
 import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
+import { McHistogramChart } from './mc-histogram';
 import { BalanceResult } from '../runs.models';
 
 /** One side of the balance drawn as an interval on a shared scale (percent of the track). */
@@ -19,7 +20,7 @@ interface IntervalBar {
 /** ΔU beside Q − W with their expanded uncertainties, the residual, En and the verdict. */
 @Component({
   selector: 'qw-balance-card',
-  imports: [DecimalPipe, MatIconModule, VerdictDisplay, WithUncertaintyPipe],
+  imports: [DecimalPipe, MatIconModule, McHistogramChart, VerdictDisplay, WithUncertaintyPipe],
   templateUrl: './balance-card.html',
   styleUrl: './balance-card.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
