@@ -16,9 +16,8 @@ export async function importCounts(db: Database) {
 
 /** A multipart upload through a signed-in test client (the harness client has JSON helpers only). */
 export function uploadFile(client: ApiClient, filename: string, content: Buffer, fields: Record<string, string> = {}) {
-  // The harness keeps the CSRF token private; a browser's HttpClient sends the same header for multipart posts.
-  const xsrf = (client as unknown as { xsrf: string }).xsrf;
-  let req = client.agent.post('/api/imports').set('X-XSRF-TOKEN', xsrf);
+  // A browser's HttpClient sends the same header for multipart posts.
+  let req = client.agent.post('/api/imports').set('X-XSRF-TOKEN', client.xsrfToken);
   for (const [k, v] of Object.entries(fields)) req = req.field(k, v);
   return req.attach('file', content, filename);
 }

@@ -28,7 +28,10 @@ export class JobQueue {
 
   async start(): Promise<void> {
     await this.boss.start();
-    await this.boss.createQueue(BALANCE_QUEUE, { name: BALANCE_QUEUE, policy: 'standard', retryLimit: 3, retryDelay: 1, expireInSeconds: this.expireSeconds });
+    const balance = { name: BALANCE_QUEUE, policy: 'standard' as const, retryLimit: 3, retryDelay: 1, expireInSeconds: this.expireSeconds };
+    await this.boss.createQueue(BALANCE_QUEUE, balance);
+    // createQueue keeps an existing queue's options; the lease of this process's settings applies from now on.
+    await this.boss.updateQueue(BALANCE_QUEUE, balance);
     await this.boss.createQueue(CALIBRATION_DUE_QUEUE, { name: CALIBRATION_DUE_QUEUE, policy: 'standard', retryLimit: 2 });
     await this.boss.createQueue(SWEEP_QUEUE, { name: SWEEP_QUEUE, policy: 'standard' });
   }

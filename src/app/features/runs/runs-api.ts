@@ -27,14 +27,19 @@ export class RunsApi {
 
   /** One page of the runs this person may see. */
   list(query: RunQuery): Observable<RunPage> {
+    // Filters that are not set are left out: the server reads a missing filter as "any".
+    const optional: Record<string, string | number | null> = {
+      state: query.state,
+      verdict: query.verdict,
+      project: query.project,
+      author: query.author,
+      mine: query.mine ? 'true' : null,
+      from: query.from,
+      to: query.to,
+    };
+    const set = Object.fromEntries(Object.entries(optional).filter(([, v]) => v !== null)) as Record<string, string | number>;
     const params = new HttpParams({
-      fromObject: {
-        page: query.page,
-        pageSize: query.pageSize,
-        state: query.state ?? '',
-        sort: query.sort,
-        dir: query.dir,
-      },
+      fromObject: { page: query.page, pageSize: query.pageSize, ...set, sort: query.sort, dir: query.dir },
     });
     return this.http.get<RunPage>('/api/runs', { params });
   }

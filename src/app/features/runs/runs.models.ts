@@ -38,6 +38,14 @@ export interface RunQuery {
   page: number;
   pageSize: number;
   state: RunState | null;
+  verdict: Verdict | null;
+  project: number | null;
+  author: number | null;
+  /** Only the signed-in person's own runs. */
+  mine: boolean;
+  /** Run dates, YYYY-MM-DD, inclusive. */
+  from: string | null;
+  to: string | null;
   sort: RunSort;
   dir: 'asc' | 'desc';
 }

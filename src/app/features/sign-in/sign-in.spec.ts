@@ -74,6 +74,8 @@ describe('SignIn', () => {
     request.flush({ person: { id: 1, email: 'technician@lab.test', name: 'Lee Park', role: 'technician' } });
     await harness.fixture.whenStable();
     httpTesting.expectOne((r) => r.url === '/api/runs').flush({ items: [], total: 0, page: 1, pageSize: 25 });
+    // The runs page's project and author filters.
+    httpTesting.expectOne('/api/projects').flush({ items: [] });
     await harness.fixture.whenStable();
 
     // Back to the page the guard interrupted.

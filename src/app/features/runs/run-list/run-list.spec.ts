@@ -43,7 +43,25 @@ describe('RunList', () => {
     harness = await RouterTestingHarness.create();
   });
 
-  afterEach(() => httpTesting.verify());
+  afterEach(() => {
+    // The project and author filters' choices.
+    httpTesting.match('/api/projects').forEach((request) => request.flush({ items: [] }));
+    httpTesting.verify();
+  });
+
+  it('passes on the filters of the home tiles (mine, verdict) and the project, author and date filters', async () => {
+    await harness.navigateByUrl('/runs?state=submitted&verdict=breaks&mine=true&project=2&author=5&from=2026-01-01&to=2026-03-31');
+    const params = expectList().request.params;
+    expect(['state', 'verdict', 'mine', 'project', 'author', 'from', 'to'].map((k) => params.get(k))).toEqual([
+      'submitted', 'breaks', 'true', '2', '5', '2026-01-01', '2026-03-31',
+    ]);
+  });
+
+  it('leaves out filters that are garbled: a bad verdict, a non-numeric project, a date that is not a date', async () => {
+    await harness.navigateByUrl('/runs?verdict=great&project=abc&from=yesterday&mine=yes');
+    const params = expectList().request.params;
+    expect(['verdict', 'project', 'from', 'mine'].map((k) => params.has(k))).toEqual([false, false, false, false]);
+  });
 
   function expectList(): TestRequest {
     return httpTesting.expectOne((request) => request.url === '/api/runs');
@@ -64,7 +82,7 @@ describe('RunList', () => {
     await harness.navigateByUrl('/runs?state=lost&page=-3&dir=sideways');
 
     const params = expectList().request.params;
-    expect(params.get('state')).toBe('');
+    expect(params.has('state')).toBe(false);
     expect(params.get('page')).toBe('1');
     expect(params.get('sort')).toBe('updatedAt');
     expect(params.get('dir')).toBe('desc');

@@ -3,7 +3,9 @@ import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
 import { MatIconModule } from '@angular/material/icon';
 import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -15,7 +17,8 @@ import { catchError, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs'
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
-import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
+import { ProjectsApi } from '../../projects/projects-api';
+import { Verdict, VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { RunsApi } from '../runs-api';
 import {
   RUN_AUTHORS,
@@ -27,7 +30,11 @@ import {
   RunState,
 } from '../runs.models';
 
-const DEFAULT_QUERY: RunQuery = { page: 1, pageSize: 25, state: null, sort: 'updatedAt', dir: 'desc' };
+const DEFAULT_QUERY: RunQuery = {
+  page: 1, pageSize: 25, state: null, verdict: null, project: null, author: null, mine: false, from: null, to: null, sort: 'updatedAt', dir: 'desc',
+};
+const VERDICTS: readonly Verdict[] = ['closes', 'breaks', 'indeterminate'];
+const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/;
 const PAGE_SIZES = [10, 25, 50, 100];
 const SORTS: readonly RunSort[] = ['code', 'title', 'state', 'updatedAt'];
 
@@ -38,10 +45,25 @@ export function runQueryFrom(params: ParamMap): RunQuery {
   const state = params.get('state') as RunState | null;
   const sort = params.get('sort') as RunSort | null;
   const dir = params.get('dir');
+  const verdict = params.get('verdict') as Verdict | null;
+  const id = (key: string) => {
+    const value = Number(params.get(key));
+    return Number.isInteger(value) && value > 0 ? value : null;
+  };
+  const day = (key: string) => {
+    const value = params.get(key);
+    return value && ISO_DAY.test(value) ? value : null;
+  };
   return {
     page: Number.isInteger(page) && page > 0 ? page : DEFAULT_QUERY.page,
     pageSize: PAGE_SIZES.includes(pageSize) ? pageSize : DEFAULT_QUERY.pageSize,
     state: state && RUN_STATES.includes(state) ? state : null,
+    verdict: verdict && VERDICTS.includes(verdict) ? verdict : null,
+    project: id('project'),
+    author: id('author'),
+    mine: params.get('mine') === 'true',
+    from: day('from'),
+    to: day('to'),
     sort: sort && SORTS.includes(sort) ? sort : DEFAULT_QUERY.sort,
     dir: dir === 'asc' || dir === 'desc' ? dir : DEFAULT_QUERY.dir,
   };
@@ -52,8 +74,10 @@ export function runQueryFrom(params: ParamMap): RunQuery {
   imports: [
     DatePipe,
     MatButtonModule,
+    MatCheckboxModule,
     MatFormFieldModule,
     MatIconModule,
+    MatInputModule,
     MatPaginatorModule,
     MatProgressBarModule,
     MatSelectModule,
@@ -73,6 +97,7 @@ export class RunList {
   private readonly router = inject(Router);
   private readonly announcer = inject(LiveAnnouncer);
   private readonly auth = inject(Auth);
+  private readonly projectsApi = inject(ProjectsApi);
 
   /** Technicians, assistants and investigators write runs; quality reads them. */
   protected readonly canWriteRuns = computed(() => (RUN_AUTHORS as readonly string[]).includes(this.auth.role() ?? ''));
@@ -120,8 +145,32 @@ export class RunList {
     return RUN_STATE_LABELS[state] ?? state;
   }
 
+  /** Projects the person can see, and the people who write runs in them, for the filters. */
+  protected readonly projects = toSignal(this.projectsApi.list().pipe(map((body) => body.items), catchError(() => of([]))), { initialValue: [] });
+  protected readonly authors = computed(() => {
+    const byId = new Map<number, { id: number; name: string }>();
+    for (const project of this.projects()) {
+      for (const member of project.members) {
+        if ((RUN_AUTHORS as readonly string[]).includes(member.role)) byId.set(member.id, { id: member.id, name: member.name });
+      }
+    }
+    return [...byId.values()].sort((a, b) => a.name.localeCompare(b.name));
+  });
+  protected readonly verdicts = VERDICTS;
+
   protected filterByState(state: RunState | null): void {
     this.updateQuery({ state, page: 1 });
+  }
+
+  /** Any other filter: one change at a time, back to the first page. */
+  protected filterBy(change: Partial<Pick<RunQuery, 'verdict' | 'project' | 'author' | 'mine' | 'from' | 'to'>>): void {
+    this.updateQuery({ ...change, page: 1 });
+  }
+
+  /** A date input's value, or null when cleared or not a whole date. */
+  protected dayOf(event: Event): string | null {
+    const value = (event.target as HTMLInputElement).value;
+    return ISO_DAY.test(value) ? value : null;
   }
 
   protected sortBy(sort: Sort): void {

@@ -1,0 +1,51 @@
+// Database outage drill (issue: faults): starts an API process on the shared loopback cluster, stops
+// PostgreSQL, checks that /api/health reports the outage, starts PostgreSQL again and checks that the
+// process reconnects. Repeats ROUNDS times (default 5) and prints each step. Run: npm run outage-check.
+// It stops the cluster: never run it while tests or other work use the database.
+import { execFileSync } from 'node:child_process';
+import { join } from 'node:path';
+import { startQwellProcess } from '../server/testing/qwell-process';
+
+const root = join(__dirname, '..');
+const pg = (cmd: string) => execFileSync('bash', [join(root, 'tools', 'pg'), cmd], { stdio: 'ignore' });
+
+async function health(url: string): Promise<string> {
+  try {
+    const res = await fetch(`${url}/api/health`);
+    return `${res.status} ${await res.text()}`;
+  } catch (error) {
+    return `no answer (${String((error as Error).cause ?? error)})`;
+  }
+}
+
+async function main(): Promise<void> {
+  const rounds = Number(process.argv[2] ?? 5);
+  let failures = 0;
+  for (let round = 1; round <= rounds; round++) {
+    const api = await startQwellProcess({ DATABASE_URL: process.env['DATABASE_URL']!, QWELL_WORKER: '0' }, 3390);
+    try {
+      const before = await health(api.url);
+      pg('down');
+      const during = await health(api.url);
+      pg('up');
+      let after = '';
+      for (let i = 0; i < 60 && !after.startsWith('200'); i++) {
+        await new Promise((r) => setTimeout(r, 250));
+        after = await health(api.url);
+      }
+      const ok = before.startsWith('200') && during.startsWith('503') && after.startsWith('200');
+      if (!ok) failures += 1;
+      console.log(`round ${round}: ${ok ? 'ok' : 'FAILED'}\n  before: ${before}\n  during: ${during}\n  after:  ${after}`);
+    } finally {
+      pg('up');
+      await api.stop('SIGKILL');
+    }
+  }
+  console.log(`\n${rounds - failures} of ${rounds} rounds reported the outage and reconnected`);
+  process.exit(failures ? 1 : 0);
+}
+
+main().catch((error: unknown) => {
+  console.error(error);
+  process.exit(1);
+});
