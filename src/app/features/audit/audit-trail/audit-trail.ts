@@ -11,10 +11,11 @@ import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
-import { ActivatedRoute, Params, Router } from '@angular/router';
+import { ActivatedRoute, Router } from '@angular/router';
 import { catchError, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { addressParams, pageRangeMessage } from '../../../shared/paging/paged-query';
 import { AuditApi } from '../audit-api';
 import {
   AuditEvent,
@@ -194,12 +195,7 @@ export class AuditTrail {
   }
 
   private updateQuery(change: Partial<AuditQuery>): void {
-    const next: AuditQuery = { ...this.query(), ...change };
-    const queryParams: Params = {};
-    for (const key of Object.keys(next) as (keyof AuditQuery)[]) {
-      // Defaults stay out of the address to keep links short.
-      queryParams[key] = next[key] === DEFAULT_AUDIT_QUERY[key] ? null : next[key];
-    }
+    const queryParams = addressParams<AuditQuery>({ ...this.query(), ...change }, DEFAULT_AUDIT_QUERY);
     void this.router.navigate([], { relativeTo: this.route, queryParams, queryParamsHandling: 'merge' });
   }
 
@@ -207,12 +203,7 @@ export class AuditTrail {
     this.result.set(page);
     this.problem.set(null);
     this.loading.set(false);
-    const first = page.total === 0 ? 0 : (page.page - 1) * page.pageSize + 1;
-    const last = Math.min(page.page * page.pageSize, page.total);
-    void this.announcer.announce(
-      page.total === 0 ? 'No audit events match.' : `Events ${first} to ${last} of ${page.total} shown.`,
-      'polite',
-    );
+    void this.announcer.announce(pageRangeMessage(page, 'Events'), 'polite');
   }
 
   private fail(problem: ProblemDetails): void {

@@ -12,13 +12,14 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import { ActivatedRoute, ParamMap, Params, Router, RouterLink } from '@angular/router';
+import { ActivatedRoute, ParamMap, Router, RouterLink } from '@angular/router';
 import { catchError, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { ProjectsApi } from '../../projects/projects-api';
 import { Verdict, VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
+import { addressParams, pageRangeMessage } from '../../../shared/paging/paged-query';
 import { RunsApi } from '../runs-api';
 import {
   RUN_AUTHORS,
@@ -187,12 +188,7 @@ export class RunList {
   }
 
   private updateQuery(change: Partial<RunQuery>): void {
-    const next = { ...this.query(), ...change };
-    const queryParams: Params = {};
-    for (const key of Object.keys(next) as (keyof RunQuery)[]) {
-      // Defaults stay out of the address to keep links short.
-      queryParams[key] = next[key] === DEFAULT_QUERY[key] ? null : next[key];
-    }
+    const queryParams = addressParams<RunQuery>({ ...this.query(), ...change }, DEFAULT_QUERY);
     void this.router.navigate([], { relativeTo: this.route, queryParams, queryParamsHandling: 'merge' });
   }
 
@@ -200,12 +196,7 @@ export class RunList {
     this.result.set(page);
     this.problem.set(null);
     this.loading.set(false);
-    const first = page.total === 0 ? 0 : (page.page - 1) * page.pageSize + 1;
-    const last = Math.min(page.page * page.pageSize, page.total);
-    void this.announcer.announce(
-      page.total === 0 ? 'No runs match.' : `Runs ${first} to ${last} of ${page.total} shown.`,
-      'polite',
-    );
+    void this.announcer.announce(pageRangeMessage(page, 'Runs'), 'polite');
   }
 
   private fail(problem: ProblemDetails): void {
