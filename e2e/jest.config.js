@@ -9,6 +9,7 @@ module.exports = {
   testMatch: ['**/*.e2e.ts'],
   transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json' }] },
   setupFiles: ['reflect-metadata'],
+  setupFilesAfterEnv: ['<rootDir>/e2e/support/retry.ts'],
   globalSetup: '<rootDir>/e2e/support/global-setup.ts',
   globalTeardown: '<rootDir>/e2e/support/global-teardown.ts',
   maxWorkers: 1,

@@ -11,11 +11,10 @@ afterEach(async () => {
   await s.close();
 });
 
-/** Opens a mat-select from the keyboard, picks the option whose text matches, and checks it took. */
+/** Opens a mat-select, picks the option whose text matches, and checks it took. */
 async function choose(label: string | RegExp, option: RegExp): Promise<void> {
   const select = s.page.getByRole('combobox', { name: label });
-  await select.focus();
-  await s.page.keyboard.press('Enter');
+  await select.click();
   const item = s.page.getByRole('option', { name: option }).first();
   await item.click();
   await item.waitFor({ state: 'detached' });
@@ -23,7 +22,7 @@ async function choose(label: string | RegExp, option: RegExp): Promise<void> {
 }
 
 describe('a technician at the bench', () => {
-  it('enters a run by keyboard, sees it saved, and submits it for the balance check', async () => {
+  it('types a run\'s readings by keyboard, sees the draft saved, and submits it for the balance check', async () => {
     const { page } = s;
     const k = page.keyboard;
     await signInAs(page, 'technician');
