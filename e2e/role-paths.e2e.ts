@@ -132,7 +132,7 @@ describe('a student assistant', () => {
     expect(await nav.getByRole('link', { name: 'Audit trail' }).count()).toBe(0);
     expect(await nav.getByRole('link', { name: 'People' }).count()).toBe(0);
     await nav.getByRole('link', { name: 'Import' }).click();
-    await page.getByRole('heading', { level: 1 }).waitFor();
+    await page.getByRole('heading', { level: 1, name: 'Import a logger file' }).waitFor();
     await screenshot(page, 'import-assistant');
     for (const path of ['/audit', '/people', '/projects']) {
       await page.goto(path);

@@ -3,6 +3,7 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import type { BalanceSettings } from './engine';
 import { balanceSettingsFromEnv } from './balance/balance-settings';
+import { DEMO_INSTITUTION } from '../db/seed/demo-lab';
 
 /** Everything the server reads from its environment, resolved once. */
 export interface Config {
@@ -95,7 +96,7 @@ export function loadConfig(overrides: Partial<Config> = {}): Config {
     mailDir: process.env['QWELL_MAIL_DIR'] ?? join(dataDir, 'mail'),
     balance: balanceSettingsFromEnv(),
     worker: process.env['QWELL_WORKER'] !== '0',
-    labName: process.env['QWELL_LAB_NAME'] ?? 'Harrowgate Institute of Applied Thermophysics',
+    labName: process.env['QWELL_LAB_NAME'] ?? DEMO_INSTITUTION,
     ...overrides,
   };
 }

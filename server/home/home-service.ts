@@ -34,13 +34,11 @@ export class HomeService {
 
   private async reviewerQueues(person: SessionPerson): Promise<Queue[]> {
     const projectIds = (await visibleProjectIds(this.db, person)) ?? [];
-    if (projectIds.length === 0) return [
-      { key: 'runs-to-review', label: 'Runs to review', count: 0, link: '/runs', queryParams: { state: 'submitted' } },
-      { key: 'breaking-balances', label: 'Balances that break', count: 0, link: '/runs', queryParams: { state: 'submitted', verdict: 'breaks' } },
-    ];
     // Segregation of duties: one's own runs are never in one's review queue.
     const base = [inArray(runs.projectId, projectIds), eq(runs.state, 'submitted'), ne(runs.authorId, person.id)];
-    const [review, breaking] = await Promise.all([this.countRuns(...base), this.countRuns(...base, eq(runs.verdict, 'breaks'))]);
+    const [review, breaking] = projectIds.length === 0
+      ? [0, 0]
+      : await Promise.all([this.countRuns(...base), this.countRuns(...base, eq(runs.verdict, 'breaks'))]);
     return [
       { key: 'runs-to-review', label: 'Runs to review', count: review, link: '/runs', queryParams: { state: 'submitted' } },
       { key: 'breaking-balances', label: 'Balances that break', count: breaking, link: '/runs', queryParams: { state: 'submitted', verdict: 'breaks' } },
@@ -50,7 +48,7 @@ export class HomeService {
   private async qualityQueues(): Promise<Queue[]> {
     const register = await new InstrumentsService(this.db).list();
     const tally = (status: string) => register.filter((i) => (i.calibration?.status ?? 'none') === status).length;
-    const [submitted] = await Promise.all([this.countRuns(eq(runs.state, 'submitted'))]);
+    const submitted = await this.countRuns(eq(runs.state, 'submitted'));
     return [
       { key: 'calibrations-due', label: 'Calibrations due within 30 days', count: tally('due-soon'), link: '/instruments', queryParams: { status: 'due-soon' } },
       { key: 'out-of-calibration', label: 'Instruments out of calibration', count: tally('expired') + tally('none'), link: '/instruments', queryParams: { status: 'expired' } },
