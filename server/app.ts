@@ -28,15 +28,21 @@ export function createApp(config: Config, handle: DbHandle, queue: JobQueue | nu
     strictTransportSecurity: config.secureCookies,
   }));
   const logger = pino({ level: config.logLevel });
-  app.use(pinoHttp({
-    logger,
-    autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
-    // Method, path and status are enough; headers would log cookies.
-    serializers: {
-      req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
-      res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
-    },
-  }));
+  // pino-http logs each finished request at "info"; below that level a request only needs req.log.
+  app.use(logger.isLevelEnabled('info')
+    ? pinoHttp({
+      logger,
+      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+      // Method, path and status are enough; headers would log cookies.
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
+    })
+    : (req, _res, next) => {
+      req.log = logger;
+      next();
+    });
   app.use(cookieParser());
   app.use(express.json({ limit: '20mb' }));
 

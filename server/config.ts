@@ -23,6 +23,8 @@ export interface Config {
   /** Built client to serve, if present. */
   staticDir: string;
   logLevel: string;
+  /** Keep answers to the run list and stored results while the records are unchanged (QWELL_READ_CACHE=0: off). */
+  readCache: boolean;
   mail: { host: string; port: number; from: string; sendIntervalMs: number };
   /** Run the loopback SMTP catcher in this process (development and tests), keeping mail in mailDir. */
   mailCatcher: boolean;
@@ -86,6 +88,7 @@ export function loadConfig(overrides: Partial<Config> = {}): Config {
     lockoutMinutes: 15,
     staticDir: join(projectRoot, 'dist', 'qwell', 'browser'),
     logLevel: process.env['LOG_LEVEL'] ?? 'info',
+    readCache: process.env['QWELL_READ_CACHE'] !== '0',
     mail: {
       host: process.env['SMTP_HOST'] ?? '127.0.0.1',
       port: int('SMTP_PORT', 2525),

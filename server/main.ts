@@ -25,7 +25,12 @@ async function main(): Promise<void> {
   const app = createApp(config, handle, queue);
   const server = process.env['QWELL_API'] === '0'
     ? null
-    : app.listen(config.port, config.host, () => {
+    : app.listen(config.port, config.host, (error?: Error) => {
+        // Express 5 calls back on a listen error too (the port taken, say): then there is nothing to serve.
+        if (error) {
+          console.error(`[qwell] cannot listen on ${config.host}:${config.port}: ${error.message}`);
+          process.exit(1);
+        }
         console.log(`[qwell] serving http://${config.host}:${config.port}${config.worker ? ' (with balance worker)' : ''}`);
       });
   if (!server) console.log('[qwell] worker only: taking balance checks');

@@ -4,19 +4,20 @@
 import 'reflect-metadata';
 import autocannon from 'autocannon';
 import { eq, sql } from 'drizzle-orm';
-import express from 'express';
-import { spawn } from 'node:child_process';
-import type { Server } from 'node:http';
+import { spawn, type ChildProcess } from 'node:child_process';
+import { cpus } from 'node:os';
 import { join } from 'node:path';
 import { createDb } from '../db/client';
 import { runs } from '../db/schema';
 import { DEFAULT_DEMO_PASSWORD, demoEmail } from '../db/seed/demo-lab';
 import { seedDemoLab } from '../db/seed/seed';
+import { spawnServer } from '../server/testing/spawn-server';
 
 const API_PORT = 3300;
 const BARE_PORT = 3301;
 const seconds = Number(process.env['QWELL_LOAD_SECONDS'] ?? 20);
 const connections = 32;
+const WARM_UP_SECONDS = 3;
 const root = join(__dirname, '..');
 
 function percentile(sorted: number[], p: number): number {
@@ -24,7 +25,15 @@ function percentile(sorted: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
 }
 
+/** Unmeasured requests first, so the figures are of a process whose code the JIT has compiled. */
+async function warmUp(url: string, headers: Record<string, string>): Promise<void> {
+  await new Promise((resolve, reject) => {
+    autocannon({ url, connections, duration: WARM_UP_SECONDS, headers }, (error, res) => (error ? reject(error) : resolve(res)));
+  });
+}
+
 async function hammer(name: string, url: string, headers: Record<string, string> = {}) {
+  await warmUp(url, headers);
   const latencies: number[] = [];
   let non2xx = 0;
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
@@ -77,35 +86,68 @@ async function main(): Promise<void> {
   const [{ total }] = await handle.db.select({ total: sql<number>`count(*)::int` }).from(runs);
   await handle.close();
 
-  const api = spawn(join(root, 'node_modules/.bin/tsx'), ['--tsconfig', 'tsconfig.server.json', 'server/main.ts'], {
-    cwd: root, env: { ...process.env, PORT: String(API_PORT), LOG_LEVEL: 'warn', QWELL_WORKER: '0' }, stdio: ['ignore', 'ignore', 'inherit'],
-  });
-  const bare = express();
-  bare.get('/bare', (_req, res) => void res.json({ status: 'ok', items: [] }));
-  const bareServer: Server = bare.listen(BARE_PORT, '127.0.0.1');
+  const apiEnv = { ...process.env, PORT: String(API_PORT), LOG_LEVEL: 'warn', QWELL_WORKER: '0' };
+  // The reference: a bare Express endpoint in its own Node process, like the API's.
+  const bare = spawn(process.execPath, ['-e',
+    `require('express')().get('/bare', (q, r) => r.json({ status: 'ok', items: [] })).listen(${BARE_PORT}, '127.0.0.1')`,
+  ], { cwd: root, stdio: ['ignore', 'ignore', 'inherit'] });
+  let api = startApi(apiEnv);
+  const writer = createDb(url, 1);
   try {
+    await waitFor(`http://127.0.0.1:${BARE_PORT}/bare`);
     await waitFor(`http://127.0.0.1:${API_PORT}/api/health`);
-    // Sign in as the quality officer, who sees every run.
-    const me = await fetch(`http://127.0.0.1:${API_PORT}/api/auth/me`);
-    const xsrf = /XSRF-TOKEN=([^;]+)/.exec(me.headers.get('set-cookie') ?? '')![1];
-    const signIn = await fetch(`http://127.0.0.1:${API_PORT}/api/auth/sign-in`, {
-      method: 'POST', headers: { 'content-type': 'application/json', cookie: `XSRF-TOKEN=${xsrf}`, 'x-xsrf-token': decodeURIComponent(xsrf) },
-      body: JSON.stringify({ email: demoEmail('quality'), password: DEFAULT_DEMO_PASSWORD }),
-    });
-    const session = /qwell_session=([^;]+)/.exec(signIn.headers.get('set-cookie') ?? '')![1];
-    const headers = { cookie: `qwell_session=${session}` };
-    console.log(`${total} runs stored; ${connections} connections for ${seconds} s per target; node ${process.version}`);
+    const headers = await signInHeaders();
+    console.log(`${total} runs stored; ${connections} connections for ${seconds} s per target; node ${process.version}; ${cpus().length} cores`);
     const bareRow = await hammer('bare Express endpoint', `http://127.0.0.1:${BARE_PORT}/bare`);
-    const list = await hammer('GET /api/runs (page of 50)', `http://127.0.0.1:${API_PORT}/api/runs?pageSize=50`, headers);
-    const balance = await hammer('GET /api/runs/:id/balance', `http://127.0.0.1:${API_PORT}/api/runs/${checked.id}/balance`, headers);
-    for (const row of [list, balance]) {
+    const listUrl = `http://127.0.0.1:${API_PORT}/api/runs?pageSize=50`;
+    const rows = [
+      await hammer('GET /api/runs (page of 50)', listUrl, headers),
+      await hammer('GET /api/runs/:id/balance', `http://127.0.0.1:${API_PORT}/api/runs/${checked.id}/balance`, headers),
+    ];
+    // Informative rows: runs being saved meanwhile (each save empties the read cache), and no cache at all.
+    const saving = setInterval(() => {
+      void writer.db.update(runs).set({ updatedAt: sql`now()` }).where(eq(runs.id, checked.id)).catch(() => undefined);
+    }, 100);
+    const whileSaving = await hammer('GET /api/runs while a run is saved every 100 ms', listUrl, headers);
+    clearInterval(saving);
+    await stop(api);
+    api = startApi({ ...apiEnv, QWELL_READ_CACHE: '0' });
+    await waitFor(`http://127.0.0.1:${API_PORT}/api/health`);
+    const uncached = await hammer('GET /api/runs with the read cache off', listUrl, await signInHeaders());
+    for (const row of [...rows, whileSaving, uncached]) {
       const share = (row['req/s'] / bareRow['req/s']) * 100;
-      console.log(`${row.target}: p95 ${row.p95} ms (target < 25 ms), ${share.toFixed(0)} % of the bare endpoint's throughput (target ≥ 30 %)`);
+      const judged = rows.includes(row) ? ' (target < 25 ms and ≥ 30 %)' : ' (for information)';
+      console.log(`${row.target}: p95 ${row.p95} ms, ${share.toFixed(0)} % of the bare endpoint's throughput${judged}`);
     }
   } finally {
-    api.kill('SIGTERM');
-    bareServer.close();
+    await writer.close();
+    await stop(api);
+    bare.kill('SIGTERM');
   }
+}
+
+function startApi(env: NodeJS.ProcessEnv): ChildProcess {
+  return spawnServer(env, ['ignore', 'ignore', 'inherit']);
+}
+
+async function stop(child: ChildProcess): Promise<void> {
+  if (child.exitCode !== null || child.signalCode !== null) return;
+  await new Promise<void>((resolve) => {
+    child.once('exit', () => resolve());
+    child.kill('SIGTERM');
+  });
+}
+
+/** Signs in as the quality officer (who sees every run) and returns the cookies a browser would send. */
+async function signInHeaders(): Promise<Record<string, string>> {
+  const me = await fetch(`http://127.0.0.1:${API_PORT}/api/auth/me`);
+  const xsrf = /XSRF-TOKEN=([^;]+)/.exec(me.headers.get('set-cookie') ?? '')![1];
+  const signIn = await fetch(`http://127.0.0.1:${API_PORT}/api/auth/sign-in`, {
+    method: 'POST', headers: { 'content-type': 'application/json', cookie: `XSRF-TOKEN=${xsrf}`, 'x-xsrf-token': decodeURIComponent(xsrf) },
+    body: JSON.stringify({ email: demoEmail('quality'), password: DEFAULT_DEMO_PASSWORD }),
+  });
+  const session = /qwell_session=([^;]+)/.exec(signIn.headers.get('set-cookie') ?? '')![1];
+  return { cookie: `qwell_session=${session}; XSRF-TOKEN=${xsrf}` };
 }
 
 main().then(() => process.exit(0), (error: unknown) => {

@@ -36,6 +36,7 @@ async function main(): Promise<void> {
       const ok = before.startsWith('200') && during.startsWith('503') && after.startsWith('200');
       if (!ok) failures += 1;
       console.log(`round ${round}: ${ok ? 'ok' : 'FAILED'}\n  before: ${before}\n  during: ${during}\n  after:  ${after}`);
+      if (!ok) console.log(`  the API process (${api.child.exitCode === null && api.child.signalCode === null ? 'running' : `exited: ${api.child.exitCode ?? api.child.signalCode}`}) said:\n${api.output.join('').trimEnd()}`);
     } finally {
       pg('up');
       await api.stop('SIGKILL');

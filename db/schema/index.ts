@@ -3,3 +3,4 @@ export * from './equipment';
 export * from './runs';
 export * from './audit';
 export * from './imports';
+export * from './data-versions';

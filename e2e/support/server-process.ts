@@ -1,5 +1,6 @@
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { join } from 'node:path';
+import { spawnServer } from '../../server/testing/spawn-server';
 
 export const E2E_PORT = Number(process.env['QWELL_E2E_PORT'] ?? 3100);
 export const BASE_URL = `http://127.0.0.1:${E2E_PORT}`;
@@ -7,11 +8,7 @@ export const root = join(__dirname, '..', '..');
 
 /** Starts the real server (tsx) on the e2e port and waits until /api/health answers. */
 export async function startServer(env: Record<string, string>): Promise<ChildProcess> {
-  const child = spawn(join(root, 'node_modules/.bin/tsx'), ['--tsconfig', 'tsconfig.server.json', 'server/main.ts'], {
-    cwd: root,
-    env: { ...process.env, PORT: String(E2E_PORT), LOG_LEVEL: 'warn', ...env },
-    stdio: ['ignore', 'inherit', 'inherit'],
-  });
+  const child = spawnServer({ ...process.env, PORT: String(E2E_PORT), LOG_LEVEL: 'warn', ...env }, ['ignore', 'inherit', 'inherit']);
   const deadline = Date.now() + 60_000;
   while (Date.now() < deadline) {
     if (child.exitCode !== null) throw new Error(`the server exited with code ${child.exitCode}`);

@@ -1,8 +1,8 @@
 import type { CookieOptions, RequestHandler, Response } from 'express';
-import { eq } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import { jwtVerify, SignJWT } from 'jose';
 import type { Database } from '../../db/client';
-import { people, type Role } from '../../db/schema';
+import { dataVersions, people, type Role } from '../../db/schema';
 import type { Config } from '../config';
 import { forbidden, unauthorized } from './problem';
 
@@ -22,6 +22,8 @@ export interface SessionPerson {
 declare module 'express-serve-static-core' {
   interface Request {
     person?: SessionPerson;
+    /** The "records" data version read with the person (see db/schema/data-versions.ts). */
+    recordsVersion?: number;
   }
 }
 
@@ -45,26 +47,58 @@ export function clearSession(res: Response, config: Config): void {
   res.clearCookie(SESSION_COOKIE, cookieOptions(config));
 }
 
+interface VerifiedToken {
+  personId: number;
+  issuedAtMs: number;
+  expiresAtMs: number;
+}
+
+// Tokens whose signature has been checked, so a busy session is not re-verified on every request.
+// The token string is the key, so a changed byte is a different (unverified) token; expiry is
+// checked on every use; revocation and deactivation are read from the database on every request.
+const VERIFIED_TOKENS_MAX = 10_000;
+
+async function verifyToken(config: Config, verified: Map<string, VerifiedToken>, token: string): Promise<VerifiedToken | null> {
+  const known = verified.get(token);
+  if (known) return known.expiresAtMs > Date.now() ? known : null;
+  try {
+    const { payload } = await jwtVerify(token, config.sessionSecret, { algorithms: [ALGORITHM], issuer: ISSUER, requiredClaims: ['sub', 'exp'] });
+    const entry = {
+      personId: Number(payload.sub),
+      issuedAtMs: typeof payload['iatMs'] === 'number' ? payload['iatMs'] : (payload.iat ?? 0) * 1000,
+      expiresAtMs: (payload.exp ?? 0) * 1000,
+    };
+    if (verified.size >= VERIFIED_TOKENS_MAX) verified.clear();
+    verified.set(token, entry);
+    return entry;
+  } catch {
+    return null; // expired, tampered or foreign tokens count as no session
+  }
+}
+
 /** Reads the session cookie when present; never refuses (requireSignIn does that). */
 export function sessionReader(config: Config, db: Database): RequestHandler {
+  const verified = new Map<string, VerifiedToken>();
+  // One round trip, built once: the person (active? revoked?) and the records version for the read cache.
+  const personQuery = db
+    .select({
+      id: people.id, email: people.email, name: people.name, role: people.role, active: people.active, validAfter: people.sessionsValidAfter,
+      recordsVersion: sql<string>`(SELECT ${dataVersions.version} FROM ${dataVersions} WHERE ${dataVersions.name} = 'records')`,
+    })
+    .from(people)
+    .where(eq(people.id, sql.placeholder('id')))
+    .prepare('session_person');
   return async (req, _res, next) => {
     const token: unknown = req.cookies?.[SESSION_COOKIE];
     if (typeof token !== 'string' || token === '') return next();
-    let personId: number;
-    let issuedAtMs: number;
-    try {
-      const { payload } = await jwtVerify(token, config.sessionSecret, { algorithms: [ALGORITHM], issuer: ISSUER });
-      personId = Number(payload.sub);
-      issuedAtMs = typeof payload['iatMs'] === 'number' ? payload['iatMs'] : (payload.iat ?? 0) * 1000;
-    } catch {
-      return next(); // expired, tampered or foreign tokens count as no session
+    const session = await verifyToken(config, verified, token);
+    if (!session) return next();
+    const [row] = await personQuery.execute({ id: session.personId });
+    const revoked = row?.validAfter ? session.issuedAtMs <= row.validAfter.getTime() : false;
+    if (row?.active && !revoked) {
+      req.person = { id: row.id, email: row.email, name: row.name, role: row.role };
+      if (row.recordsVersion !== null) req.recordsVersion = Number(row.recordsVersion);
     }
-    const [row] = await db
-      .select({ id: people.id, email: people.email, name: people.name, role: people.role, active: people.active, validAfter: people.sessionsValidAfter })
-      .from(people)
-      .where(eq(people.id, personId));
-    const revoked = row?.validAfter ? issuedAtMs <= row.validAfter.getTime() : false;
-    if (row?.active && !revoked) req.person = { id: row.id, email: row.email, name: row.name, role: row.role };
     next();
   };
 }

@@ -2,6 +2,7 @@ import { Router } from 'express';
 import type { Database } from '../../db/client';
 import type { Config } from '../config';
 import { badRequest } from '../core/problem';
+import { ReadCache } from '../core/read-cache';
 import { idParam } from '../core/route-params';
 import { requireRole } from '../core/session';
 import { validateBody } from '../core/validate-body';
@@ -19,11 +20,12 @@ const AUTHORS = ['technician', 'assistant', 'investigator'] as const;
 export function runsRouter(db: Database, config: Config, queue: JobQueue | null): Router {
   const service = new RunsService(db, config, queue);
   const review = new ReviewService(db);
+  // The list and the stored results are read far more often than runs change.
+  const reads = new ReadCache(2000, config.readCache);
   const router = Router();
 
   router.get('/', requireRole(...READERS), async (req, res) => {
-    const query = await validateQuery(RunListQuery, req.query);
-    res.json(await service.list(req.person!, query));
+    await reads.json(req, res, async () => service.list(req.person!, await validateQuery(RunListQuery, req.query)));
   });
 
   router.post('/', requireRole(...AUTHORS), async (req, res) => {
@@ -53,8 +55,10 @@ export function runsRouter(db: Database, config: Config, queue: JobQueue | null)
   });
 
   router.get('/:id/balance', requireRole(...READERS), async (req, res) => {
-    const { run, row } = await service.latestResult(req.person!, idParam(req.params['id'], 'run'));
-    res.json(balanceResponse(run, row));
+    await reads.json(req, res, async () => {
+      const { run, row } = await service.latestResult(req.person!, idParam(req.params['id'], 'run'));
+      return balanceResponse(run, row);
+    });
   });
 
   router.get('/:id/history', requireRole(...READERS), async (req, res) => {

@@ -1,7 +1,5 @@
-import { spawn, type ChildProcess } from 'node:child_process';
-import { join } from 'node:path';
-
-const root = join(__dirname, '..', '..');
+import type { ChildProcess } from 'node:child_process';
+import { spawnServer } from './spawn-server';
 
 export interface QwellProcess {
   child: ChildProcess;
@@ -12,11 +10,10 @@ export interface QwellProcess {
 
 /** Starts `server/main.ts` as its own OS process and waits until it says it is ready. */
 export async function startQwellProcess(env: Record<string, string>, port?: number): Promise<QwellProcess> {
-  const child = spawn(join(root, 'node_modules/.bin/tsx'), ['--tsconfig', 'tsconfig.server.json', 'server/main.ts'], {
-    cwd: root,
-    env: { ...process.env, LOG_LEVEL: 'warn', QWELL_MAIL_CATCHER: '0', SMTP_PORT: '1', ...(port ? { PORT: String(port) } : {}), ...env },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
+  const child = spawnServer(
+    { ...process.env, LOG_LEVEL: 'warn', QWELL_MAIL_CATCHER: '0', SMTP_PORT: '1', ...(port ? { PORT: String(port) } : {}), ...env },
+    ['ignore', 'pipe', 'pipe'],
+  );
   const output: string[] = [];
   const ready = new Promise<void>((resolve, reject) => {
     const onData = (chunk: Buffer) => {
