@@ -1,23 +1,25 @@
-// The large fuzz run (issue: ≥ 10 000 cases): random and near-miss JSON against every write route on
+// The large fuzz run (issue: ≥ 10 000 cases): random JSON, and near-valid payloads (a route's valid
+// payload with one field changed, dropped or added), against every write route on
 // a fresh database. Run with `npm run fuzz [-- CASES]`; prints failures and a summary; exit 1 on any.
 import 'reflect-metadata';
 import fc from 'fast-check';
-import { fuzzOnce, fuzzParams, fuzzTargets, payload, type FuzzFailure } from '../server/security/fuzz-writes';
-import { clientAs, startHarness } from '../server/testing/api-harness';
+import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, payloadsFor, type FuzzFailure } from '../server/security/fuzz-writes';
+import { startHarness } from '../server/testing/api-harness';
 
 async function main(): Promise<void> {
   const total = Number(process.argv[2] ?? 10_000);
   const perRoute = Math.ceil(total / fuzzTargets.length);
   const h = await startHarness();
   const ids = await fuzzParams(h.handle.db);
+  const clients = await fuzzClients(h.app, h.handle.db, ids);
   const failures: FuzzFailure[] = [];
   const started = Date.now();
   let cases = 0;
   for (const target of fuzzTargets) {
-    const client = await clientAs(h.app, target.role);
-    const url = target.path.replace(/:[a-z]+/g, (p) => String(ids[p]));
+    const client = clients[target.actor];
+    const url = fuzzUrl(target, ids);
     const statuses = new Map<number, number>();
-    const samples = fc.sample(payload, { numRuns: perRoute, seed: 7 + cases });
+    const samples = fc.sample(payloadsFor(target, ids), { numRuns: perRoute, seed: 7 + cases });
     for (const body of samples) {
       const seen = new Set<number>();
       const failure = await fuzzOnce(h.handle.db, client, target.method, url, body, seen);

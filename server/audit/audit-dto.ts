@@ -1,5 +1,6 @@
 import { Type } from 'class-transformer';
 import { IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min } from 'class-validator';
+import { IsCalendarDay } from '../core/validators';
 
 export class AuditQuery {
   @IsOptional() @Type(() => Number) @IsInt({ message: 'page must be a whole number' }) @Min(1, { message: 'page starts at 1' })
@@ -20,9 +21,9 @@ export class AuditQuery {
   @IsOptional() @IsString() @MaxLength(32) @Matches(/^[a-z-]+$/, { message: 'entityType must look like run or instrument' })
   entityType?: string;
 
-  @IsOptional() @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'from must be a date like 2026-03-14' })
+  @IsOptional() @IsCalendarDay({ message: 'from must be a date like 2026-03-14' })
   from?: string;
 
-  @IsOptional() @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'to must be a date like 2026-03-14' })
+  @IsOptional() @IsCalendarDay({ message: 'to must be a date like 2026-03-14' })
   to?: string;
 }

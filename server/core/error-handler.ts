@@ -9,6 +9,12 @@ export const apiNotFound: RequestHandler = (req, _res, next) => {
   next(new HttpProblem(404, 'Not found', `There is no API route ${req.method} ${req.originalUrl.split('?')[0]}.`));
 };
 
+/** The PostgreSQL error code of a failed query (Drizzle wraps the driver's error as its cause). */
+function pgCode(err: { code?: unknown; cause?: { code?: unknown } } | undefined): string | undefined {
+  const code = err?.cause?.code ?? err?.code;
+  return typeof code === 'string' ? code : undefined;
+}
+
 /** The single error handler: every failure leaves as application/problem+json, never a stack trace. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   let problem: HttpProblem;
@@ -16,11 +22,18 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     problem = err;
   } else if (err?.type === 'entity.parse.failed') {
     problem = new HttpProblem(400, 'Bad request', 'The request body is not valid JSON.');
-  } else if (err?.cause?.code === '23505' || err?.code === '23505') {
+  } else if (pgCode(err) === '23505') {
     // A unique index refused the write: two people created the same thing at the same moment.
     problem = new HttpProblem(409, 'Conflict', 'A record with the same identifying value exists already; nothing was changed. Reload and try again.');
-  } else if (err?.cause?.code === '23503' || err?.code === '23503') {
+  } else if (pgCode(err) === '23503') {
     problem = new HttpProblem(409, 'Conflict', 'The change refers to a record that does not exist (or is still referred to); nothing was changed.');
+  } else if (pgCode(err) === '23502') {
+    // A column that cannot be empty was left empty: validation should have said so, but the database holds the line.
+    const column = err?.cause?.column_name ?? err?.column_name;
+    problem = new HttpProblem(400, 'Bad request', `A required value is missing${column ? ` (${column})` : ''}; nothing was changed.`);
+  } else if (['22007', '22008', '22003', '22P02'].includes(pgCode(err) ?? '')) {
+    // A date that does not exist, a number out of range, text where a number belongs.
+    problem = new HttpProblem(400, 'Bad request', 'A value is out of range or not of the right kind (a date that does not exist, say); nothing was changed.');
   } else if (err?.type === 'entity.too.large') {
     problem = new HttpProblem(413, 'Too large', 'The request body is larger than the server accepts.');
   } else {

@@ -1,5 +1,6 @@
 import { Type } from 'class-transformer';
 import { IsIn, IsNumber, IsObject, IsOptional, IsString, Length, Matches, Min, ValidateNested } from 'class-validator';
+import { IsCalendarDay } from '../core/validators';
 import { channelKinds, type ChannelKind } from '../../db/schema';
 
 export class InstrumentSpecDto {
@@ -45,13 +46,12 @@ export class CreateInstrumentDto {
   spec?: InstrumentSpecDto;
 }
 
-const isoDay = /^\d{4}-\d{2}-\d{2}$/;
 
 export class CreateCalibrationDto {
-  @Matches(isoDay, { message: 'calibratedOn must be a date like 2026-03-14' })
+  @IsCalendarDay({ message: 'calibratedOn must be a date like 2026-03-14' })
   calibratedOn!: string;
 
-  @Matches(isoDay, { message: 'dueOn must be a date like 2027-03-14' })
+  @IsCalendarDay({ message: 'dueOn must be a date like 2027-03-14' })
   dueOn!: string;
 
   @IsString() @Length(2, 100, { message: 'certificate must name the certificate (2 to 100 characters)' })

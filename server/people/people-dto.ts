@@ -1,4 +1,5 @@
-import { IsBoolean, IsEmail, IsIn, IsOptional, IsString, Length } from 'class-validator';
+import { IsBoolean, IsEmail, IsIn, IsString, Length } from 'class-validator';
+import { IsOptionalNotNull } from '../core/validators';
 import { roles, type Role } from '../../db/schema';
 
 /** ASVS 2.1.1: new passwords are at least 12 characters. */
@@ -19,19 +20,19 @@ export class CreatePersonDto {
 }
 
 export class UpdatePersonDto {
-  @IsOptional() @IsString() @Length(2, 200, { message: 'name must be 2 to 200 characters' })
+  @IsOptionalNotNull() @IsString() @Length(2, 200, { message: 'name must be 2 to 200 characters' })
   name?: string;
 
-  @IsOptional() @IsIn(roles, { message: `role must be one of ${roles.join(', ')}` })
+  @IsOptionalNotNull() @IsIn(roles, { message: `role must be one of ${roles.join(', ')}` })
   role?: Role;
 
-  @IsOptional() @IsBoolean({ message: 'active must be true or false' })
+  @IsOptionalNotNull() @IsBoolean({ message: 'active must be true or false' })
   active?: boolean;
 
   /** true clears a lockout. */
-  @IsOptional() @IsBoolean({ message: 'unlock must be true or false' })
+  @IsOptionalNotNull() @IsBoolean({ message: 'unlock must be true or false' })
   unlock?: boolean;
 
-  @IsOptional() @IsString() @Length(MIN_PASSWORD_LENGTH, 1024, { message: `password must be at least ${MIN_PASSWORD_LENGTH} characters` })
+  @IsOptionalNotNull() @IsString() @Length(MIN_PASSWORD_LENGTH, 1024, { message: `password must be at least ${MIN_PASSWORD_LENGTH} characters` })
   password?: string;
 }

@@ -1,5 +1,6 @@
 import { Type } from 'class-transformer';
-import { IsIn, IsInt, IsObject, IsOptional, IsString, Length, Matches, Max, Min } from 'class-validator';
+import { IsIn, IsInt, IsObject, IsOptional, IsString, Length, Max, Min } from 'class-validator';
+import { IsCalendarDay, IsOptionalNotNull } from '../core/validators';
 import { processes, runStates, verdicts, type RunState } from '../../db/schema';
 import type { ReadingsInput } from './run-document-mapper';
 import type { RunSetup } from './run-setup';
@@ -30,10 +31,10 @@ export class RunListQuery {
   @IsOptional() @IsIn(['true', 'false'], { message: 'mine must be true or false' })
   mine?: 'true' | 'false';
 
-  @IsOptional() @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'from must be a date like 2026-03-14' })
+  @IsOptional() @IsCalendarDay({ message: 'from must be a date like 2026-03-14' })
   from?: string;
 
-  @IsOptional() @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'to must be a date like 2026-03-14' })
+  @IsOptional() @IsCalendarDay({ message: 'to must be a date like 2026-03-14' })
   to?: string;
 
   @IsOptional() @IsIn(runSortKeys, { message: `sort must be one of ${runSortKeys.join(', ')}` })
@@ -43,7 +44,6 @@ export class RunListQuery {
   dir: 'asc' | 'desc' = 'desc';
 }
 
-const isoDay = /^\d{4}-\d{2}-\d{2}$/;
 
 export class CreateRunDto {
   @IsInt({ message: 'projectId must be the id of one of your projects' })
@@ -55,7 +55,7 @@ export class CreateRunDto {
   @IsIn(processes, { message: `process must be one of ${processes.join(', ')}` })
   process!: Process;
 
-  @Matches(isoDay, { message: 'runDate must be a date like 2026-03-14' })
+  @IsCalendarDay({ message: 'runDate must be a date like 2026-03-14' })
   runDate!: string;
 
   @IsOptional() @IsInt({ message: 'gasId must be the id of a gas' })
@@ -72,13 +72,13 @@ export class UpdateRunDto {
   @IsInt({ message: 'version must be the version of the run you are editing (a whole number)' })
   version!: number;
 
-  @IsOptional() @IsString() @Length(3, 200, { message: 'title must be 3 to 200 characters' })
+  @IsOptionalNotNull() @IsString() @Length(3, 200, { message: 'title must be 3 to 200 characters' })
   title?: string;
 
-  @IsOptional() @IsIn(processes, { message: `process must be one of ${processes.join(', ')}` })
+  @IsOptionalNotNull() @IsIn(processes, { message: `process must be one of ${processes.join(', ')}` })
   process?: Process;
 
-  @IsOptional() @Matches(isoDay, { message: 'runDate must be a date like 2026-03-14' })
+  @IsOptionalNotNull() @IsCalendarDay({ message: 'runDate must be a date like 2026-03-14' })
   runDate?: string;
 
   @IsOptional() @IsInt({ message: 'gasId must be the id of a gas' })
@@ -87,7 +87,7 @@ export class UpdateRunDto {
   @IsOptional() @IsInt({ message: 'apparatusId must be the id of an apparatus' })
   apparatusId?: number | null;
 
-  @IsOptional() @IsObject({ message: 'setup must be an object' })
+  @IsOptionalNotNull() @IsObject({ message: 'setup must be an object' })
   setup?: RunSetup;
 }
 

@@ -1,28 +1,51 @@
 import bcrypt from 'bcryptjs';
 import { eq, sql } from 'drizzle-orm';
+import type { Express } from 'express';
 import fc from 'fast-check';
 import type { Database } from '../../db/client';
-import { apparatus, instruments, people, projectMembers, projects, runs, type Role } from '../../db/schema';
-import type { ApiClient } from '../testing/api-harness';
+import { apparatus, instruments, people, projectMembers, projects, runs } from '../../db/schema';
+import { demoEmail } from '../../db/seed/demo-lab';
+import { approvalMeanings } from '../runs/review-dto';
+import { ApiClient, DEMO_PASSWORD } from '../testing/api-harness';
+import { loadFixture, runBodies } from '../testing/fixture-runs';
 
-/** Write routes to fuzz, each with a role that passes its gate (so the payload reaches validation). */
-export const fuzzTargets: { method: 'POST' | 'PUT' | 'PATCH'; path: string; role: Role }[] = [
-  { method: 'POST', path: '/api/balance', role: 'technician' },
-  { method: 'POST', path: '/api/runs', role: 'technician' },
-  { method: 'PATCH', path: '/api/runs/:draft', role: 'technician' },
-  { method: 'PUT', path: '/api/runs/:draft/readings', role: 'technician' },
-  { method: 'POST', path: '/api/runs/:draft/submit', role: 'technician' },
-  { method: 'POST', path: '/api/runs/:submitted/approve', role: 'investigator' },
-  { method: 'POST', path: '/api/runs/:submitted/return', role: 'investigator' },
-  { method: 'POST', path: '/api/runs/:approved/revisions', role: 'technician' },
-  { method: 'POST', path: '/api/instruments', role: 'quality' },
-  { method: 'POST', path: '/api/instruments/:instrument/calibrations', role: 'quality' },
-  { method: 'POST', path: '/api/apparatus', role: 'quality' },
-  { method: 'PUT', path: '/api/apparatus/:apparatus', role: 'quality' },
-  { method: 'POST', path: '/api/people', role: 'admin' },
-  { method: 'PATCH', path: '/api/people/:person', role: 'admin' },
-  { method: 'POST', path: '/api/projects', role: 'admin' },
-  { method: 'PUT', path: '/api/projects/:project/members', role: 'admin' },
+/** Who sends a route's payloads: throwaway people made here for the run routes, the demo quality officer and administrator for the registers. */
+type Actor = 'fuzzTechnician' | 'fuzzInvestigator' | 'quality' | 'admin';
+
+/** Stands for the run's version at the moment of sending, so near-valid payloads get past the version check. */
+const CURRENT_VERSION = '<current version>';
+
+export interface FuzzTarget {
+  method: 'POST' | 'PUT' | 'PATCH';
+  path: string;
+  actor: Actor;
+  /** A payload the route accepts; near-misses are made from it one change at a time. */
+  valid: (ids: FuzzIds) => Record<string, unknown>;
+}
+
+export type FuzzIds = Record<string, number>;
+
+const FUZZ_PASSWORD = 'fuzz-target-password';
+const fixture = loadFixture('isothermal');
+
+/** Every write route; each with an actor that passes its role gate, so payloads reach validation and beyond. */
+export const fuzzTargets: FuzzTarget[] = [
+  { method: 'POST', path: '/api/balance', actor: 'fuzzTechnician', valid: () => ({ ...fixture }) },
+  { method: 'POST', path: '/api/runs', actor: 'fuzzTechnician', valid: (ids) => runBodies(fixture, ids[':project']).create },
+  { method: 'PATCH', path: '/api/runs/:draft', actor: 'fuzzTechnician', valid: () => ({ version: CURRENT_VERSION, title: 'Fuzzed title', runDate: '2026-05-03' }) },
+  { method: 'PUT', path: '/api/runs/:draft/readings', actor: 'fuzzTechnician', valid: (ids) => ({ version: CURRENT_VERSION, ...runBodies(fixture, ids[':project']).readings }) },
+  { method: 'POST', path: '/api/runs/:draft/submit', actor: 'fuzzTechnician', valid: () => ({ version: CURRENT_VERSION }) },
+  { method: 'POST', path: '/api/runs/:submitted/approve', actor: 'fuzzInvestigator', valid: () => ({ version: CURRENT_VERSION, password: FUZZ_PASSWORD, meaning: approvalMeanings[0] }) },
+  { method: 'POST', path: '/api/runs/:submitted/return', actor: 'fuzzInvestigator', valid: () => ({ version: CURRENT_VERSION, password: FUZZ_PASSWORD, meaning: 'I have reviewed this run and return it for correction', reason: 'The heater current channel is missing its instrument.' }) },
+  { method: 'POST', path: '/api/runs/:approved/revisions', actor: 'fuzzTechnician', valid: () => ({ reason: 'Correct the ambient temperature' }) },
+  { method: 'POST', path: '/api/instruments', actor: 'quality', valid: (ids) => ({ tag: `FZ-PT-${ids[':project']}`, name: 'Fuzz pressure transducer', kind: 'pressure', unit: 'kPa', rangeMin: 0, rangeMax: 700, spec: { percentOfReading: 0.1 } }) },
+  { method: 'POST', path: '/api/instruments/:instrument/calibrations', actor: 'quality', valid: () => ({ calibratedOn: '2026-01-10', dueOn: '2027-01-10', certificate: 'FZ-CERT-1', expandedUncertainty: 0.2, coverageFactor: 2 }) },
+  { method: 'POST', path: '/api/apparatus', actor: 'quality', valid: (ids) => ({ tag: `FZ-NEW-${ids[':project']}`, name: 'Fuzz piston cell', kind: 'piston-cell', bore: 0.05, ratedPressure: 1e6 }) },
+  { method: 'PUT', path: '/api/apparatus/:apparatus', actor: 'quality', valid: (ids) => ({ tag: `FZ-CELL-${ids[':apparatus']}`, name: 'Fuzz target apparatus', kind: 'vessel', fixedVolume: 0.001 }) },
+  { method: 'POST', path: '/api/people', actor: 'admin', valid: (ids) => ({ email: `new-fuzz-${ids[':project']}@fuzz.test`, name: 'New fuzz person', role: 'assistant', password: 'a long enough password' }) },
+  { method: 'PATCH', path: '/api/people/:person', actor: 'admin', valid: () => ({ name: 'Fuzz target renamed', role: 'assistant' }) },
+  { method: 'POST', path: '/api/projects', actor: 'admin', valid: (ids) => ({ code: `FZN${ids[':project']}`, name: 'New fuzz project' }) },
+  { method: 'PUT', path: '/api/projects/:project/members', actor: 'admin', valid: (ids) => ({ personIds: [ids[':technician'], ids[':investigator']] }) },
 ];
 
 // Tables whose rows a refused request must leave alone (the audit trail and mail outbox may record refusals).
@@ -37,14 +60,36 @@ export async function rowCounts(db: Database): Promise<Record<string, number>> {
   return out;
 }
 
-/** Payloads: random JSON, and near-misses built from the right field names with wrong types. */
-export const payload = fc.oneof(
+const fieldNames = ['version', 'title', 'process', 'runDate', 'projectId', 'time', 'channels', 'password', 'meaning', 'reason', 'tag', 'name', 'kind', 'unit', 'email', 'role', 'personIds', 'calibratedOn', 'dueOn', 'certificate', 'expandedUncertainty', 'setup', 'format', 'readings', 'gas', '__proto__', 'constructor'];
+
+/** Values that break a field: wrong types, edges of numbers, empty, huge and odd text. */
+const oddValue = fc.oneof(
   fc.jsonValue(),
-  fc.dictionary(
-    fc.constantFrom('version', 'title', 'process', 'runDate', 'projectId', 'time', 'channels', 'password', 'meaning', 'reason', 'tag', 'name', 'kind', 'unit', 'email', 'role', 'personIds', 'calibratedOn', 'dueOn', 'certificate', 'expandedUncertainty', 'setup', 'format', 'readings', 'gas', '__proto__', 'constructor'),
-    fc.oneof(fc.jsonValue(), fc.string(), fc.integer(), fc.double(), fc.constant(null), fc.array(fc.oneof(fc.double(), fc.string(), fc.constant(null)), { maxLength: 5 })),
-  ),
+  fc.constantFrom('', ' ', 'x'.repeat(5000), '2026-02-30', '1e3', '<script>', 'DROP TABLE runs', -1, 0, -0, 1e308, -1e308, 2 ** 53, 0.1, true, [], {}, null),
+  fc.string({ unit: 'grapheme' }),
+  fc.double(),
+  fc.array(fc.oneof(fc.double(), fc.string(), fc.constant(null)), { maxLength: 5 }),
 );
+
+/** Random JSON, and near-misses built from the right field names with wrong types. */
+export const payload = fc.oneof(fc.jsonValue(), fc.dictionary(fc.constantFrom(...fieldNames), oddValue));
+
+/** The route's valid payload itself, or with one field changed, dropped or added. */
+export function nearValid(template: Record<string, unknown>): fc.Arbitrary<unknown> {
+  const keys = Object.keys(template);
+  return fc.oneof(
+    fc.constant(template),
+    fc.tuple(fc.constantFrom(...keys), oddValue).map(([key, value]) => ({ ...template, [key]: value })),
+    fc.constantFrom(...keys).map((key) => Object.fromEntries(Object.entries(template).filter(([k]) => k !== key))),
+    fc.tuple(fc.oneof(fc.constantFrom(...fieldNames), fc.string()), oddValue).map(([key, value]) => ({ ...template, [key]: value })),
+  );
+}
+
+/** Payloads for a target: a third random, two thirds near-valid. */
+export function payloadsFor(target: FuzzTarget, ids: FuzzIds): fc.Arbitrary<unknown> {
+  const near = nearValid(target.valid(ids));
+  return fc.oneof({ arbitrary: payload, weight: 1 }, { arbitrary: near, weight: 2 });
+}
 
 export interface FuzzFailure {
   route: string;
@@ -54,8 +99,17 @@ export interface FuzzFailure {
   changed?: Record<string, [number, number]>;
 }
 
+/** Puts the run's version of the moment in place of CURRENT_VERSION. */
+async function withCurrentVersion(db: Database, url: string, body: unknown): Promise<unknown> {
+  if (!body || typeof body !== 'object' || (body as Record<string, unknown>)['version'] !== CURRENT_VERSION) return body;
+  const runId = Number(/\/api\/runs\/(\d+)/.exec(url)?.[1]);
+  const [run] = await db.select({ version: runs.version }).from(runs).where(eq(runs.id, runId));
+  return { ...body, version: run?.version ?? 1 };
+}
+
 /** Sends one payload; reports a 5xx, or a refusal that changed rows. */
-export async function fuzzOnce(db: Database, client: ApiClient, method: string, url: string, body: unknown, statuses?: Set<number>): Promise<FuzzFailure | null> {
+export async function fuzzOnce(db: Database, client: ApiClient, method: string, url: string, raw: unknown, statuses?: Set<number>): Promise<FuzzFailure | null> {
+  const body = await withCurrentVersion(db, url, raw);
   const before = await rowCounts(db);
   const req = method === 'POST' ? client.agent.post(url) : method === 'PUT' ? client.agent.put(url) : client.agent.patch(url);
   const res = await req.set('X-XSRF-TOKEN', client.xsrfToken).set('Content-Type', 'application/json').send(JSON.stringify(body));
@@ -70,20 +124,50 @@ export async function fuzzOnce(db: Database, client: ApiClient, method: string, 
 }
 
 /**
- * Ids for the fuzzed routes' parameters. The people, project and apparatus are throwaway ones made
- * here, so that a random payload that happens to be valid cannot lock out or re-role the demo people
- * other tests sign in as.
+ * Ids for the fuzzed routes' parameters and the throwaway people who send them. The runs, people,
+ * project and apparatus are made here, so that a payload that happens to be valid (and two thirds
+ * are built to be nearly so) changes none of the demo records other tests read.
  */
-export async function fuzzParams(db: Database): Promise<Record<string, number>> {
-  const tag = Date.now().toString(36).toUpperCase();
-  const first = async (state: 'draft' | 'submitted' | 'approved') => (await db.select({ id: runs.id }).from(runs).where(eq(runs.state, state)).limit(1))[0].id;
-  const [person] = await db.insert(people).values({ email: `fuzz-${tag.toLowerCase()}@fuzz.test`, name: 'Fuzz target', role: 'technician', passwordHash: await bcrypt.hash('fuzz-target-password', 4) }).returning();
-  const [project] = await db.insert(projects).values({ code: `FZ${tag.slice(-6)}`, name: 'Fuzz target project' }).returning();
-  await db.insert(projectMembers).values({ projectId: project.id, personId: person.id });
-  const [app] = await db.insert(apparatus).values({ tag: `FZ-${tag.slice(-6)}`, name: 'Fuzz target apparatus', kind: 'vessel' }).returning();
+export async function fuzzParams(db: Database): Promise<FuzzIds> {
+  const tag = Date.now().toString(36).toUpperCase().slice(-6);
+  const passwordHash = await bcrypt.hash(FUZZ_PASSWORD, 4);
+  const person = async (name: string, role: 'technician' | 'investigator') =>
+    (await db.insert(people).values({ email: `${name}-${tag.toLowerCase()}@fuzz.test`, name: `Fuzz ${name}`, role, passwordHash }).returning())[0].id;
+  const technician = await person('technician', 'technician');
+  const investigator = await person('investigator', 'investigator');
+  const target = await person('target', 'technician');
+  const [project] = await db.insert(projects).values({ code: `FZ${tag}`, name: 'Fuzz target project' }).returning();
+  await db.insert(projectMembers).values([{ projectId: project.id, personId: technician }, { projectId: project.id, personId: investigator }]);
+  const run = async (state: 'draft' | 'submitted' | 'approved') =>
+    (await db.insert(runs).values({
+      code: `FZ-${tag}-${state}`, projectId: project.id, authorId: technician, title: `Fuzz ${state} run`, process: 'isothermal', runDate: '2026-05-02', state,
+      setup: runBodies(fixture, project.id).create.setup as Record<string, unknown>,
+    }).returning())[0].id;
+  const [app] = await db.insert(apparatus).values({ tag: `FZ-${tag}`, name: 'Fuzz target apparatus', kind: 'vessel' }).returning();
   const [inst] = await db.select({ id: instruments.id }).from(instruments).limit(1);
   return {
-    ':draft': await first('draft'), ':submitted': await first('submitted'), ':approved': await first('approved'),
-    ':instrument': inst.id, ':apparatus': app.id, ':person': person.id, ':project': project.id,
+    ':draft': await run('draft'), ':submitted': await run('submitted'), ':approved': await run('approved'),
+    ':instrument': inst.id, ':apparatus': app.id, ':person': target, ':project': project.id,
+    ':technician': technician, ':investigator': investigator,
   };
 }
+
+/** Signed-in clients for each actor. */
+export async function fuzzClients(app: Express, db: Database, ids: FuzzIds): Promise<Record<Actor, ApiClient>> {
+  const signIn = async (email: string, password: string) => {
+    const client = new ApiClient(app);
+    const res = await client.signIn(email, password);
+    if (res.status !== 200) throw new Error(`fuzz sign-in as ${email} failed: ${res.status}`);
+    return client;
+  };
+  const emailOf = async (id: number) => (await db.select({ email: people.email }).from(people).where(eq(people.id, id)))[0].email;
+  return {
+    fuzzTechnician: await signIn(await emailOf(ids[':technician']), FUZZ_PASSWORD),
+    fuzzInvestigator: await signIn(await emailOf(ids[':investigator']), FUZZ_PASSWORD),
+    quality: await signIn(demoEmail('quality'), DEMO_PASSWORD),
+    admin: await signIn(demoEmail('admin'), DEMO_PASSWORD),
+  };
+}
+
+/** A target's URL with its parameters filled in. */
+export const fuzzUrl = (target: FuzzTarget, ids: FuzzIds) => target.path.replace(/:[a-z]+/g, (p) => String(ids[p]));
