@@ -18,6 +18,8 @@ const BARE_PORT = 3301;
 const seconds = Number(process.env['QWELL_LOAD_SECONDS'] ?? 20);
 const connections = 32;
 const WARM_UP_SECONDS = 3;
+// What every browser sends; the bare endpoint gets it too.
+const BROWSER_HEADERS = { 'accept-encoding': 'gzip, deflate, br', accept: 'application/json, text/plain, */*' };
 const root = join(__dirname, '..');
 
 function percentile(sorted: number[], p: number): number {
@@ -98,7 +100,7 @@ async function main(): Promise<void> {
     await waitFor(`http://127.0.0.1:${API_PORT}/api/health`);
     const headers = await signInHeaders();
     console.log(`${total} runs stored; ${connections} connections for ${seconds} s per target; node ${process.version}; ${cpus().length} cores`);
-    const bareRow = await hammer('bare Express endpoint', `http://127.0.0.1:${BARE_PORT}/bare`);
+    const bareRow = await hammer('bare Express endpoint', `http://127.0.0.1:${BARE_PORT}/bare`, BROWSER_HEADERS);
     const listUrl = `http://127.0.0.1:${API_PORT}/api/runs?pageSize=50`;
     const rows = [
       await hammer('GET /api/runs (page of 50)', listUrl, headers),
@@ -147,7 +149,7 @@ async function signInHeaders(): Promise<Record<string, string>> {
     body: JSON.stringify({ email: demoEmail('quality'), password: DEFAULT_DEMO_PASSWORD }),
   });
   const session = /qwell_session=([^;]+)/.exec(signIn.headers.get('set-cookie') ?? '')![1];
-  return { cookie: `qwell_session=${session}; XSRF-TOKEN=${xsrf}` };
+  return { ...BROWSER_HEADERS, cookie: `qwell_session=${session}; XSRF-TOKEN=${xsrf}` };
 }
 
 main().then(() => process.exit(0), (error: unknown) => {

@@ -65,6 +65,24 @@ describe('ReadCache', () => {
     }
   });
 
+  it('sends a large answer gzipped to a client that accepts gzip, and plain to one that does not', async () => {
+    const cache = new ReadCache();
+    const big = { rows: Array.from({ length: 200 }, (_, i) => ({ i, title: `Run ${i}` })) };
+    const app = express();
+    app.get('/big', async (req, res) => {
+      req.recordsVersion = 1;
+      await cache.json(req, res, async () => big);
+    });
+    const zipped = await request(app).get('/big').set('Accept-Encoding', 'gzip');
+    expect(zipped.headers['content-encoding']).toBe('gzip');
+    expect(zipped.body).toEqual(big); // supertest unzips
+    expect(Number(zipped.headers['content-length'])).toBeLessThan(JSON.stringify(big).length / 3);
+    const plain = await request(app).get('/big').set('Accept-Encoding', 'identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(Number(plain.headers['content-length'])).toBe(Buffer.byteLength(JSON.stringify(big)));
+    expect(plain.headers['vary']).toMatch(/Accept-Encoding/);
+  });
+
   it('keeps at most its maximum number of answers', async () => {
     const cache = new ReadCache(3);
     const app = appWith(cache);

@@ -4,6 +4,7 @@ import { jwtVerify, SignJWT } from 'jose';
 import type { Database } from '../../db/client';
 import { dataVersions, people, type Role } from '../../db/schema';
 import type { Config } from '../config';
+import { FreshBatcher } from './fresh-batcher';
 import { forbidden, unauthorized } from './problem';
 
 export const SESSION_COOKIE = 'qwell_session';
@@ -11,7 +12,7 @@ export const SESSION_COOKIE = 'qwell_session';
 const ALGORITHM = 'HS256';
 const ISSUER = 'qwell';
 
-/** The signed-in person as the routes see it, loaded fresh from the database on every request. */
+/** The signed-in person as the routes see it, read from the database after each request arrived (batched under load: see FreshBatcher). */
 export interface SessionPerson {
   id: number;
   email: string;
@@ -79,21 +80,23 @@ async function verifyToken(config: Config, verified: Map<string, VerifiedToken>,
 /** Reads the session cookie when present; never refuses (requireSignIn does that). */
 export function sessionReader(config: Config, db: Database): RequestHandler {
   const verified = new Map<string, VerifiedToken>();
-  // One round trip, built once: the person (active? revoked?) and the records version for the read cache.
-  const personQuery = db
+  // One round trip for every request arriving during the previous one: the people (active?
+  // revoked?) and the records version for the read cache, read after each request came in.
+  const peopleQuery = db
     .select({
       id: people.id, email: people.email, name: people.name, role: people.role, active: people.active, validAfter: people.sessionsValidAfter,
       recordsVersion: sql<string>`(SELECT ${dataVersions.version} FROM ${dataVersions} WHERE ${dataVersions.name} = 'records')`,
     })
     .from(people)
-    .where(eq(people.id, sql.placeholder('id')))
-    .prepare('session_person');
+    .where(sql`${people.id} = ANY(${sql.placeholder('ids')}::int[])`)
+    .prepare('session_people');
+  const batcher = new FreshBatcher(async (ids: number[]) => new Map((await peopleQuery.execute({ ids })).map((row) => [row.id, row])));
   return async (req, _res, next) => {
     const token: unknown = req.cookies?.[SESSION_COOKIE];
     if (typeof token !== 'string' || token === '') return next();
     const session = await verifyToken(config, verified, token);
     if (!session) return next();
-    const [row] = await personQuery.execute({ id: session.personId });
+    const row = await batcher.load(session.personId);
     const revoked = row?.validAfter ? session.issuedAtMs <= row.validAfter.getTime() : false;
     if (row?.active && !revoked) {
       req.person = { id: row.id, email: row.email, name: row.name, role: row.role };
