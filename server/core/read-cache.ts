@@ -71,7 +71,7 @@ export class ReadCache {
     return { body, etag: etagOf?.(body) };
   }
 
-  /** Number of answers kept (for tests and the load tool). */
+  /** Number of answers kept (for tests). */
   get size(): number {
     return this.answers.size;
   }
