@@ -48,7 +48,7 @@ describe('GET /api/runs/:id/balance', () => {
 describe('run document round trip', () => {
   it('exports a stored run as a run document that POST /api/balance checks to the same numbers', async () => {
     const quality = await clientAs(h.app, 'quality');
-    const submitted = (await quality.get('/api/runs?state=submitted&sort=code&dir=asc')).body.items[0];
+    const submitted = (await quality.get('/api/runs?state=submitted&verdict=closes&sort=code&dir=asc')).body.items[0];
     const stored = (await quality.get(`/api/runs/${submitted.id}/balance`)).body.result;
     const exported = await quality.get(`/api/runs/${submitted.id}/document`);
     expect(exported.status).toBe(200);

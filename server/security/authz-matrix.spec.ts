@@ -64,7 +64,7 @@ let params: Record<string, string>;
 beforeAll(async () => {
   h = await startHarness();
   for (const who of ['anonymous', ...everyone] as Who[]) clients.set(who, await clientAs(h.app, who === 'anonymous' ? null : who));
-  const [run] = await h.handle.db.select({ id: runs.id }).from(runs).where(eq(runs.state, 'submitted')).limit(1);
+  const [run] = await h.handle.db.select({ id: runs.id }).from(runs).where(eq(runs.state, 'submitted')).orderBy(runs.id).limit(1);
   const [inst] = await h.handle.db.select({ id: instruments.id }).from(instruments).limit(1);
   params = { ':id': String(run.id), ':action': 'approve', ':instrument': String(inst.id) };
 });
