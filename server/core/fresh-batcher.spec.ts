@@ -28,9 +28,9 @@ describe('FreshBatcher', () => {
     expect(await answer).toBe(0);
   });
 
-  it('gives the requests that arrive during a fetch one later fetch, begun after they came', async () => {
+  it('gives the requests that arrive while the fetches are under way one later fetch, begun after they came', async () => {
     const { calls, fetch, state } = controlledFetch();
-    const batcher = new FreshBatcher(fetch);
+    const batcher = new FreshBatcher(fetch, 1);
     const first = batcher.load(1);
     await tick();
     // A change commits while the first fetch is under way; then three requests arrive.
@@ -45,6 +45,27 @@ describe('FreshBatcher', () => {
     // The first request saw the state before the change; the later ones see it after, never before.
     expect(await first).toBe(0);
     expect(await Promise.all(later)).toEqual([1, 1, 1]);
+  });
+
+  it('lets a second fetch start while a slow one is under way, up to the limit', async () => {
+    const { calls, fetch } = controlledFetch();
+    const batcher = new FreshBatcher(fetch, 2);
+    const slow = batcher.load(1);
+    await tick();
+    const quick = batcher.load(2);
+    await tick();
+    expect(calls.map((c) => c.keys)).toEqual([[1], [2]]);
+    const waiting = [batcher.load(3), batcher.load(4)];
+    await tick();
+    expect(calls).toHaveLength(2); // both slots busy: 3 and 4 gather in the next batch
+    calls[1].finish();
+    expect(await quick).toBe(0);
+    await tick();
+    expect(calls.map((c) => c.keys)).toEqual([[1], [2], [3, 4]]);
+    calls[2].finish();
+    expect(await Promise.all(waiting)).toEqual([0, 0]);
+    calls[0].finish();
+    expect(await slow).toBe(0);
   });
 
   it('passes a failed fetch to its requests and goes on with the next', async () => {

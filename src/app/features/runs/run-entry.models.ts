@@ -1,0 +1,177 @@
+import type { RunState } from './runs.models';
+
+// Run entry at the bench: create, edit, readings, submit (and the shapes the run page shares).
+/** Processes a run can claim. */
+export type RunProcess = 'isobaric' | 'isochoric' | 'isothermal' | 'adiabatic' | 'polytropic' | 'calorimetric';
+
+export const RUN_PROCESSES: readonly RunProcess[] = [
+  'isobaric',
+  'isochoric',
+  'isothermal',
+  'adiabatic',
+  'polytropic',
+  'calorimetric',
+];
+
+/** Reading channels besides time, in grid order. */
+export type ReadingChannel = 'pressure' | 'volume' | 'displacement' | 'temperature' | 'voltage' | 'current' | 'power';
+
+export const READING_CHANNELS: readonly ReadingChannel[] = [
+  'pressure',
+  'volume',
+  'displacement',
+  'temperature',
+  'voltage',
+  'current',
+  'power',
+];
+
+/** A measured value with its unit and, optionally, its standard uncertainty in the same unit. */
+export interface EnteredQuantity {
+  value: number;
+  unit: string;
+  u?: number;
+}
+
+/** How one channel was entered (written by PUT readings). */
+export interface ChannelEntry {
+  unit: string;
+  /** Register instrument that read it. */
+  instrumentId?: number;
+  /** Or an instrument described inside the run (imported run documents). */
+  instrument?: string;
+  reference?: 'absolute' | 'gauge';
+}
+
+export type GasSetup =
+  | { model: 'species'; species: string }
+  | { model: 'equipartition'; f: number }
+  | { model: 'calorimeter' };
+
+export type AmountSetup =
+  | { from: 'moles'; value: number; u?: number }
+  | { from: 'mass'; mass: EnteredQuantity; molarMass?: { value: number; u?: number } }
+  | { from: 'initialState'; Z?: number };
+
+/** The run's setup document (server/runs/run-setup.ts); unknown keys are kept as they are. */
+export interface DraftSetup {
+  gas?: GasSetup;
+  amount?: AmountSetup;
+  /** Polytropic index n. */
+  processIndex?: number;
+  ambient?: { pressure?: EnteredQuantity; temperature?: EnteredQuantity };
+  apparatus?: Record<string, unknown>;
+  time?: { unit: 's' | 'min' | 'h' | 'iso'; origin?: string };
+  channels?: Partial<Record<ReadingChannel, ChannelEntry>>;
+  [key: string]: unknown;
+}
+
+/** One of the person's projects. */
+export interface Project {
+  id: number;
+  code: string;
+  name: string;
+}
+
+/** One gas of `GET /api/gases`. */
+export interface Gas {
+  id: number;
+  /** Species code the engine knows: N2, O2, Ar, CO2, He, air. */
+  code: string;
+  name: string;
+  /** kg/mol. */
+  molarMass: number;
+}
+
+/** One piece of apparatus of `GET /api/apparatus`; values in SI, null when not known. */
+export interface ApparatusItem {
+  id: number;
+  tag: string;
+  name: string;
+  kind: string;
+  /** Pa. */
+  ratedPressure: number | null;
+  /** m. */
+  bore: number | null;
+  /** m³. */
+  fixedVolume: number | null;
+}
+
+export interface ItemList<T> {
+  items: T[];
+}
+
+/** `GET /api/runs/:id` as run entry reads it; readings are SI columns, one value per time point. */
+export interface RunDraft {
+  id: number;
+  code: string;
+  projectId: number;
+  title: string;
+  process: RunProcess;
+  state: RunState;
+  runDate: string;
+  gasId: number | null;
+  apparatusId: number | null;
+  version: number;
+  setup: DraftSetup | null;
+  readings: { count: number; time: number[] } & Record<ReadingChannel, (number | null)[]>;
+}
+
+/** Body of `POST /api/runs`. */
+export interface CreateRunBody {
+  projectId: number;
+  title: string;
+  process: RunProcess;
+  runDate: string;
+  gasId?: number;
+  apparatusId?: number;
+  setup?: DraftSetup;
+}
+
+/** Body of `PATCH /api/runs/:id`. */
+export interface UpdateRunBody {
+  version: number;
+  title?: string;
+  process?: RunProcess;
+  runDate?: string;
+  gasId?: number | null;
+  apparatusId?: number | null;
+  setup?: DraftSetup;
+}
+
+/** Body of `PUT /api/runs/:id/readings`: values in each channel's own unit; null for an empty cell. */
+export interface ReadingsBody {
+  version: number;
+  time: { unit: 's' | 'min' | 'h'; values: number[] };
+  channels: Partial<Record<ReadingChannel, ChannelEntry & { values: (number | null)[] }>>;
+}
+
+/** What the server answers to a write: the run's new version at least. */
+export interface RunVersion {
+  id: number;
+  code?: string;
+  version: number;
+}
+
+/** The run's setup as stored: channels with entered units, ambient, apparatus, gas (only what the run page reads). */
+export interface RunSetup {
+  gas?: { model: 'species' | 'equipartition' | 'calorimeter' | string; species?: string; f?: number };
+  channels?: Record<string, { unit: string; instrument?: string; reference?: string }>;
+  ambient?: { pressure?: EnteredQuantity; temperature?: EnteredQuantity };
+  apparatus?: { name?: string; ratedPressure?: EnteredQuantity; [key: string]: unknown };
+  [key: string]: unknown;
+}
+
+/** SI units of the readings the server returns. */
+export const READING_SI_UNITS: Readonly<Record<'time' | ReadingChannel, string>> = {
+  time: 's',
+  pressure: 'Pa',
+  volume: 'm³',
+  displacement: 'm',
+  temperature: 'K',
+  voltage: 'V',
+  current: 'A',
+  power: 'W',
+};
+
+export type RunReadings = { count: number; time: number[] } & Record<ReadingChannel, (number | null)[]>;
