@@ -4,14 +4,14 @@
 import 'reflect-metadata';
 import autocannon from 'autocannon';
 import { eq, sql } from 'drizzle-orm';
-import { spawn, type ChildProcess } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { cpus } from 'node:os';
 import { join } from 'node:path';
 import { createDb } from '../db/client';
 import { runs } from '../db/schema';
 import { DEFAULT_DEMO_PASSWORD, demoEmail } from '../db/seed/demo-lab';
 import { seedDemoLab } from '../db/seed/seed';
-import { spawnServer } from '../server/testing/spawn-server';
+import { startQwellProcess } from '../server/testing/qwell-process';
 
 const API_PORT = 3300;
 const BARE_PORT = 3301;
@@ -88,16 +88,15 @@ async function main(): Promise<void> {
   const [{ total }] = await handle.db.select({ total: sql<number>`count(*)::int` }).from(runs);
   await handle.close();
 
-  const apiEnv = { ...process.env, PORT: String(API_PORT), LOG_LEVEL: 'warn', QWELL_WORKER: '0' };
+  const apiEnv = { DATABASE_URL: url, QWELL_WORKER: '0' };
   // The reference: a bare Express endpoint in its own Node process, like the API's.
   const bare = spawn(process.execPath, ['-e',
     `require('express')().get('/bare', (q, r) => r.json({ status: 'ok', items: [] })).listen(${BARE_PORT}, '127.0.0.1')`,
   ], { cwd: root, stdio: ['ignore', 'ignore', 'inherit'] });
-  let api = startApi(apiEnv);
+  let api = await startQwellProcess(apiEnv, API_PORT);
   const writer = createDb(url, 1);
   try {
     await waitFor(`http://127.0.0.1:${BARE_PORT}/bare`);
-    await waitFor(`http://127.0.0.1:${API_PORT}/api/health`);
     const headers = await signInHeaders();
     console.log(`${total} runs stored; ${connections} connections for ${seconds} s per target; node ${process.version}; ${cpus().length} cores`);
     const bareRow = await hammer('bare Express endpoint', `http://127.0.0.1:${BARE_PORT}/bare`, BROWSER_HEADERS);
@@ -112,9 +111,8 @@ async function main(): Promise<void> {
     }, 100);
     const whileSaving = await hammer('GET /api/runs while a run is saved every 100 ms', listUrl, headers);
     clearInterval(saving);
-    await stop(api);
-    api = startApi({ ...apiEnv, QWELL_READ_CACHE: '0' });
-    await waitFor(`http://127.0.0.1:${API_PORT}/api/health`);
+    await api.stop();
+    api = await startQwellProcess({ ...apiEnv, QWELL_READ_CACHE: '0' }, API_PORT);
     const uncached = await hammer('GET /api/runs with the read cache off', listUrl, await signInHeaders());
     for (const row of [...rows, whileSaving, uncached]) {
       const share = (row['req/s'] / bareRow['req/s']) * 100;
@@ -123,21 +121,9 @@ async function main(): Promise<void> {
     }
   } finally {
     await writer.close();
-    await stop(api);
+    await api.stop();
     bare.kill('SIGTERM');
   }
-}
-
-function startApi(env: NodeJS.ProcessEnv): ChildProcess {
-  return spawnServer(env, ['ignore', 'ignore', 'inherit']);
-}
-
-async function stop(child: ChildProcess): Promise<void> {
-  if (child.exitCode !== null || child.signalCode !== null) return;
-  await new Promise<void>((resolve) => {
-    child.once('exit', () => resolve());
-    child.kill('SIGTERM');
-  });
 }
 
 /** Signs in as the quality officer (who sees every run) and returns the cookies a browser would send. */

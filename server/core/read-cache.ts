@@ -45,7 +45,7 @@ export class ReadCache {
       const flightKey = `${version}:${key}`;
       let flight = this.loading.get(flightKey);
       if (!flight) {
-        flight = this.load(req, load).finally(() => this.loading.delete(flightKey));
+        flight = this.build(req, load).finally(() => this.loading.delete(flightKey));
         this.loading.set(flightKey, flight);
       }
       answer = await flight;
@@ -65,7 +65,7 @@ export class ReadCache {
     }
   }
 
-  private async load(req: Request, load: () => Promise<unknown>): Promise<CachedAnswer> {
+  private async build(req: Request, load: () => Promise<unknown>): Promise<CachedAnswer> {
     const body = Buffer.from(JSON.stringify(await load()));
     const etagOf = req.app.get('etag fn') as ((body: Buffer, encoding?: string) => string) | undefined;
     return { body, etag: etagOf?.(body) };

@@ -1,5 +1,5 @@
 import type { CookieOptions, RequestHandler, Response } from 'express';
-import { eq, sql } from 'drizzle-orm';
+import { sql } from 'drizzle-orm';
 import { jwtVerify, SignJWT } from 'jose';
 import type { Database } from '../../db/client';
 import { dataVersions, people, type Role } from '../../db/schema';
