@@ -9,7 +9,7 @@ export const runStates = ['draft', 'submitted', 'approved', 'returned', 'rejecte
 export type RunState = (typeof runStates)[number];
 export const runStateEnum = pgEnum('run_state', runStates);
 
-export const processes = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric'] as const;
+export const processes = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric', 'free-form'] as const;
 export const processEnum = pgEnum('process', processes);
 
 export const verdicts = ['closes', 'breaks', 'indeterminate'] as const;

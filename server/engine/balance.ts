@@ -7,7 +7,8 @@ import { compareWithLinear, monteCarlo, type Histogram } from './monte-carlo';
 import { claimedIndex, polytropicFit } from './polytropic';
 import { propagate } from './propagation';
 import { validateRunDocument, type RunDocument, type ValidationError } from './run-document';
-import { buildRunModel, type SourceKind } from './run-model';
+import { criticalConstants } from './real-gas';
+import { buildRunModel, type RealGasOption, type SourceKind } from './run-model';
 import { buildSeries, type RunSeries } from './series';
 import { ENGINE_VERSION } from './version';
 import { verdictOf, type Verdict } from './verdict';
@@ -53,7 +54,8 @@ export interface BalanceResult {
   temperatures: { T1: number; T2: number };
   work: { measured: number; u: number; U: number; model: number | null; modelFormula: string; gap: number | null };
   heat: { electrical: number; leak: number; wall: number; total: number; u: number; U: number };
-  internalEnergy: { value: number; u: number; U: number; method: string };
+  /** ideal: n·∫Cv dT (or C·ΔT); departure: the real-gas part of value (0 when not applied), J. */
+  internalEnergy: { value: number; u: number; U: number; method: string; ideal: number; departure: number; departureMethod: string | null };
   residual: { r: number; u: number; U: number; k: number };
   correlations: { W_Q: number; W_dU: number; Q_dU: number };
   En: number | null;
@@ -68,7 +70,7 @@ export interface BalanceResult {
 
 export type CheckResult = { ok: true; result: BalanceResult } | { ok: false; errors: ValidationError[] };
 
-/** An input the engine can read but cannot evaluate (e.g. a temperature outside a Shomate range). */
+/** An input the engine can read but cannot evaluate (e.g. a temperature outside a heat-capacity fit's range). */
 export class EngineInputError extends Error {
   constructor(readonly path: string, message: string) {
     super(message);
@@ -78,6 +80,13 @@ export class EngineInputError extends Error {
 const DEFAULTS = { coverageFactor: 2, draws: 100_000, indeterminateFraction: 0.2 };
 /** Upper bound on Monte Carlo draws per request (memory: 8 bytes per draw). */
 export const MAX_DRAWS = 10_000_000;
+
+/** The second-virial departure: on by default for a species gas the correlation covers. */
+function realGasOption(doc: RunDocument): RealGasOption | null {
+  if (doc.gas.model !== 'species' || doc.gas.realGas === false) return null;
+  const critical = criticalConstants(doc.gas.species);
+  return critical ? { critical } : null;
+}
 
 function heatCapacityModel(doc: RunDocument): HeatCapacityModel | null {
   if (doc.gas.model === 'species') return speciesModel(doc.gas.species);
@@ -104,7 +113,7 @@ function core(doc: RunDocument, k: number, fraction: number): Core {
       if (problem) throw new EngineInputError(`readings.temperature[${i}]`, `cannot compute ΔU: ${problem}`);
     }
   }
-  const model = buildRunModel(series, gasModel);
+  const model = buildRunModel(series, gasModel, realGasOption(doc));
   const prop = propagate(model.inputs, model.evaluate, ['W', 'Q', 'dU', 'r']);
   const [W, Q, dU, r] = prop.values;
   const Ur = k * prop.u[3];
@@ -212,7 +221,10 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
     temperatures: { T1: nom.T1, T2: nom.T2 },
     work: { measured: W, u: uW, U: k * uW, model: modelW.value, modelFormula: modelW.formula, gap: modelW.value === null ? null : W - modelW.value },
     heat: { electrical: nom.Qel, leak: nom.leak, wall: nom.wall, total: Q, u: uQ, U: k * uQ },
-    internalEnergy: { value: dU, u: udU, U: k * udU, method: gasModel ? `n·∫Cv dT, ${gasModel.label}` : 'C·ΔT' },
+    internalEnergy: {
+      value: dU, u: udU, U: k * udU, ideal: nom.dUideal, departure: nom.dUdeparture, departureMethod: model.departureMethod,
+      method: gasModel ? `n·∫Cv dT, ${gasModel.label}${nom.dUdeparture !== 0 ? ', plus the real-gas departure' : ''}` : 'C·ΔT',
+    },
     residual: { r: outcome.r, u: ur, U: outcome.Ur, k },
     correlations: { W_Q: prop.correlation[0][1], W_dU: prop.correlation[0][2], Q_dU: prop.correlation[1][2] },
     En: finite(outcome.En),

@@ -54,12 +54,12 @@ describe('run document validation', () => {
     delete cal.apparatus.heatCapacity;
     expect(paths(cal)).toEqual(['apparatus.heatCapacity']);
   });
-  it('checkRunDocument turns a temperature outside a Shomate range into a path and message', () => {
-    const doc = load('polytropic.json'); // CO2: the WebBook fit starts at 298 K
-    doc.readings.temperature.values[0] = 250;
+  it('checkRunDocument turns a temperature outside the NASA polynomials\' range into a path and message', () => {
+    const doc = load('polytropic.json'); // CO2: NASA/TP-2002-211556 polynomials start at 200 K
+    doc.readings.temperature.values[0] = 190;
     const res = checkRunDocument(doc, { draws: 0 });
     expect(res.ok).toBe(false);
-    if (!res.ok) expect(res.errors).toEqual([{ path: 'readings.temperature[0]', message: expect.stringMatching(/298 K to 6000 K; 250.00 K is outside/) }]);
+    if (!res.ok) expect(res.errors).toEqual([{ path: 'readings.temperature[0]', message: expect.stringMatching(/200 K to 6000 K; 190.00 K is outside/) }]);
   });
   it('refuses settings the engine cannot honour, beside document errors', () => {
     const res = checkRunDocument(load('isothermal.json'), { coverageFactor: 0, draws: 1.5, indeterminateFraction: -1 });

@@ -2,7 +2,7 @@
 // and its validation into a list of { path, message } problems.
 import { SPECIES, type Species } from './gases';
 import type { InstrumentSpec } from './instrument-uncertainty';
-import { isIsoDate, isUnit, type UnitKind } from './units';
+import { isIsoDate, isUnit, unitsOf, type UnitKind } from './units';
 import type { ClaimedProcess } from './work';
 
 export const RUN_FORMAT = 'qwell.run';
@@ -16,7 +16,8 @@ export interface Quantity {
 }
 
 export type GasSpec =
-  | { model: 'species'; species: Species }
+  /** realGas: add the second-virial departure to ΔU (default true). */
+  | { model: 'species'; species: Species; realGas?: boolean }
   | { model: 'equipartition'; f: number }
   | { model: 'calorimeter' };
 
@@ -47,8 +48,8 @@ export interface PressureChannel extends Channel {
 }
 
 export interface Readings {
-  /** Seconds, minutes, hours, or ISO 8601 timestamps (unit "iso"). */
-  time: { unit: 's' | 'min' | 'h' | 'iso'; values: Array<number | string> };
+  /** Milliseconds, seconds, minutes, hours, or ISO 8601 timestamps (unit "iso"). */
+  time: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; values: Array<number | string> };
   pressure?: PressureChannel;
   volume?: Channel;
   /** Piston displacement (m or mm); V = deadVolume + π·bore²/4 · x. */
@@ -83,7 +84,8 @@ export interface RunDocument {
   process: { claimed: ClaimedProcess; index?: number };
   gas: GasSpec;
   amount?: AmountSpec;
-  ambient: { pressure?: Quantity; temperature?: Quantity };
+  /** The barometer may be an instrument of `instruments`: its specification then adds to the typed u. */
+  ambient: { pressure?: Quantity & { instrument?: string }; temperature?: Quantity };
   apparatus: Apparatus;
   instruments: Instrument[];
   readings: Readings;
@@ -96,7 +98,7 @@ export interface ValidationError {
 
 export type ValidationResult = { ok: true; doc: RunDocument } | { ok: false; errors: ValidationError[] };
 
-export const PROCESSES: readonly ClaimedProcess[] = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric'];
+export const PROCESSES: readonly ClaimedProcess[] = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric', 'free-form'];
 
 /** The reading channels besides time, and the unit kind of each. */
 export const CHANNEL_KINDS: Readonly<Record<Exclude<keyof Readings, 'time'>, UnitKind>> = {
@@ -148,27 +150,9 @@ class Collector {
   }
   unit(v: unknown, path: string, kind: UnitKind, extra: string[] = []): void {
     if (!isUnit(kind, v) && !extra.includes(v as string)) {
-      this.add(path, `unknown ${kind} unit ${JSON.stringify(v)}; use one of ${[...unitsList(kind), ...extra].join(', ')}`);
+      this.add(path, `unknown ${kind} unit ${JSON.stringify(v)}; use one of ${[...unitsOf(kind), ...extra].join(', ')}`);
     }
   }
-}
-
-function unitsList(kind: UnitKind): string[] {
-  const all: Record<UnitKind, string[]> = {
-    pressure: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'],
-    volume: ['m3', 'L', 'mL', 'cm3'],
-    length: ['m', 'mm'],
-    temperature: ['K', 'degC', 'degF'],
-    energy: ['J', 'kJ', 'cal_th', 'Wh'],
-    heatCapacity: ['J/K', 'kJ/K', 'cal_th/K'],
-    voltage: ['V', 'mV'],
-    current: ['A', 'mA'],
-    power: ['W', 'mW'],
-    time: ['s', 'min', 'h'],
-    mass: ['kg', 'g', 'mg'],
-    conductance: ['W/K'],
-  };
-  return all[kind];
 }
 
 export function validateRunDocument(input: unknown): ValidationResult {
@@ -200,6 +184,7 @@ export function validateRunDocument(input: unknown): ValidationResult {
     if (gasModel === 'species') {
       species = gas['species'] as string;
       if (!SPECIES.includes(species as Species)) c.add('gas.species', `must be one of ${SPECIES.join(', ')}, got ${JSON.stringify(species)}`);
+      if (gas['realGas'] !== undefined && typeof gas['realGas'] !== 'boolean') c.add('gas.realGas', `must be true or false, got ${JSON.stringify(gas['realGas'])}`);
     } else if (gasModel === 'equipartition') c.number(gas, 'f', 'gas', { required: true, positive: true });
     else if (gasModel !== 'calorimeter') c.add('gas.model', `must be "species", "equipartition" or "calorimeter", got ${JSON.stringify(gasModel)}`);
   }
@@ -216,6 +201,10 @@ export function validateRunDocument(input: unknown): ValidationResult {
   }
 
   const instrumentIds = validateInstruments(input['instruments'], c);
+  const baro = ambient?.['pressure'];
+  if (isObject(baro) && baro['instrument'] !== undefined && (typeof baro['instrument'] !== 'string' || !instrumentIds.has(baro['instrument']))) {
+    c.add('ambient.pressure.instrument', `names no entry of instruments: ${JSON.stringify(baro['instrument'])}`);
+  }
   const channels = validateReadings(input['readings'], c, instrumentIds);
 
   // Cross-field rules: each says which fields disagree and what would fix it.
@@ -239,6 +228,9 @@ export function validateRunDocument(input: unknown): ValidationResult {
       c.add('ambient.temperature', 'is required when apparatus.heatLossCoefficient is given (heat leak ∫h·(T − T_ambient) dt)');
     }
     if (gasModel === 'calorimeter' && apparatus['heatCapacity'] === undefined) c.add('apparatus.heatCapacity', 'is required for gas.model "calorimeter" (ΔU = C·ΔT)');
+    if (gasModel && gasModel !== 'calorimeter' && apparatus['heatCapacity'] !== undefined && apparatus['wallUptake'] !== undefined) {
+      c.add('apparatus.wallUptake', 'give the vessel wall heat capacity apparatus.heatCapacity (wall uptake C·ΔT from the readings) or a fixed apparatus.wallUptake, not both: together they count the wall twice');
+    }
     if (gasModel && gasModel !== 'calorimeter') validateAmount(input['amount'], c, { species, pressure: has('pressure'), volume: volumeSource });
     else if (input['amount'] !== undefined) c.add('amount', 'is not read for a calorimeter run');
   }

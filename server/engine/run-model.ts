@@ -4,7 +4,7 @@
 // Where it is exact and where it is linearised:
 // - Systematic parts are exact: a gain a and offset b per instrument turn ∫P dV, ∫U·I dt and ∫(T − T_amb) dt
 //   into polynomials in (a, b) whose coefficients are sums precomputed once (S(P,V), S(gP,V), ΔV, ...).
-// - ΔU is exact per evaluation: it depends on T at the first and last reading only, so the nonlinear Shomate
+// - ΔU is exact per evaluation: it depends on T at the first and last reading only, so the nonlinear NASA-polynomial
 //   ∫Cv dT and n = P1V1/(ZRT1) are re-evaluated for every draw, with the first and last readings' random
 //   errors drawn explicitly.
 // - The random errors of the interior readings are linearised: each enters W or Q through a fixed
@@ -13,6 +13,7 @@
 //   c_i under the systematic errors (second order); both are negligible when per-reading noise is small
 //   against the swing of the path. The normal shape follows from the central limit theorem for many readings.
 import { cvIntegral, type HeatCapacityModel } from './gases';
+import { DEPARTURE_RELATIVE_U, departureAtPressure, departureAtVolume, type CriticalConstants } from './real-gas';
 import type { Distribution } from './monte-carlo';
 import type { ChannelSeries, RunSeries } from './series';
 import { R_GAS } from './units';
@@ -36,7 +37,18 @@ export interface RunModel {
   evaluate(x: Float64Array): number[];
   /** r only (the Monte Carlo hot path). */
   residual(x: Float64Array): number;
-  nominal: { W: number; Qel: number; leak: number; wall: number; Q: number; dU: number; r: number; n: number | null; T1: number; T2: number; leakIntegral: number };
+  nominal: {
+    W: number; Qel: number; leak: number; wall: number; Q: number; dU: number; r: number; n: number | null; T1: number; T2: number; leakIntegral: number;
+    /** n·∫Cv dT alone, and the real-gas departure n·[(U − U°)₂ − (U − U°)₁], J (0 without a departure). */
+    dUideal: number; dUdeparture: number;
+  };
+  /** How the real-gas departure was evaluated, or why it was not. */
+  departureMethod: string | null;
+}
+
+/** The real-gas departure to add to ΔU: the species' critical constants (null: ideal gas only). */
+export interface RealGasOption {
+  critical: CriticalConstants;
 }
 
 interface Sums {
@@ -49,7 +61,7 @@ interface Sums {
 }
 
 
-export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | null): RunModel {
+export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | null, realGas: RealGasOption | null = null): RunModel {
   const { N, t, P, V, T, U, I, Pw } = series;
   const last = N - 1;
   const s: Sums = { SPV: 0, SgPV: 0, SPgV: 0, SgPgV: 0, dV: 0, dgV: 0, SUI: 0, SU: 0, SI: 0, SPw: 0, tTot: t[last] - t[0], ST: 0, SgT: 0 };
@@ -127,13 +139,17 @@ export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | n
     };
   };
   const hasW = !!(P && V);
-  const sP = channelSlots(hasW ? P : series.amount.kind === 'initialState' ? P : undefined, 'Pa', ssP);
+  const calorimeter = gasModel === null;
+  // The real-gas departure reads the absolute pressure at the two ends, else the molar volume there.
+  const departure: 'pressure' | 'volume' | null = calorimeter || !realGas ? null : P ? 'pressure' : V ? 'volume' : null;
+  const sP = channelSlots(hasW || series.amount.kind === 'initialState' || departure === 'pressure' ? P : undefined, 'Pa', ssP);
   const sV = channelSlots(V && V.label !== 'vessel volume' ? V : undefined, 'm3', ssV);
   const sT = channelSlots(T, 'K', series.heatLoss ? ssW : 0);
   const sU = channelSlots(U, 'V', ssU);
   const sI = channelSlots(I, 'A', ssI);
   const sPw = channelSlots(Pw, 'W', ssW);
-  const iPamb = series.gauge && series.ambientPressure ? slot('barometric (ambient) pressure', 'ambient pressure', 'systematic', 'Pa', 0, series.ambientPressure.u, 'normal') : -1;
+  const baro = series.ambientPressure;
+  const iPamb = series.gauge && baro ? slot(baro.label ?? 'barometric (ambient) pressure', baro.group ?? 'ambient pressure', 'systematic', 'Pa', 0, baro.u, 'normal') : -1;
   const iBore = series.boreGain ? slot('piston bore (area)', 'piston bore', 'systematic', '1', 0, series.boreGain, 'normal') : -1;
   const iVoff = slot(V?.label === 'vessel volume' ? 'vessel volume' : 'dead volume', 'apparatus volume', 'systematic', 'm3', 0, series.volumeOffsetU, 'normal');
   const Ta = series.ambientTemperature;
@@ -142,9 +158,11 @@ export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | n
   const iH = h ? slot('heat-loss coefficient h', 'heat-loss coefficient', 'constant', 'W/K', h.value, h.u, 'normal') : -1;
   const wall = series.wallUptake;
   const iWall = wall ? slot('wall uptake', 'wall uptake', 'constant', 'J', wall.value, wall.u, 'normal') : -1;
+  // C is the calorimeter's whole heat capacity on a calorimetric run, and the vessel wall's on a gas run, where the
+  // wall takes up C·(T_last − T_first) of the heat (DESIGN §2, heat).
   const C = series.heatCapacity;
-  const calorimeter = gasModel === null;
-  const iC = calorimeter && C ? slot('calorimeter heat capacity C', 'heat capacity', 'constant', 'J/K', C.value, C.u, 'normal') : -1;
+  const iC = C ? slot(calorimeter ? 'calorimeter heat capacity C' : 'vessel wall heat capacity C (wall uptake C·ΔT)', 'heat capacity', 'constant', 'J/K', C.value, C.u, 'normal') : -1;
+  const iDep = departure ? slot('real-gas departure (Tsonopoulos B(T), relative)', 'real-gas departure', 'constant', '1', 0, DEPARTURE_RELATIVE_U, 'normal') : -1;
   const am = series.amount;
   const iN = am.kind === 'moles' ? slot('amount n', 'amount', 'constant', 'mol', am.n.value, am.n.u, 'normal') : -1;
   const iM = am.kind === 'mass' ? slot('gas mass m', 'amount', 'constant', 'kg', am.m.value, am.m.u, 'normal') : -1;
@@ -152,7 +170,9 @@ export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | n
   const iZ = am.kind === 'initialState' ? slot('compressibility Z', 'amount', 'constant', '1', am.Z.value, am.Z.u, 'normal') : -1;
 
   const p1 = P ? P.si[0] : NaN, gp1 = P ? P.gainBasis[0] : 0;
+  const pN = P ? P.si[last] : NaN, gpN = P ? P.gainBasis[last] : 0;
   const v1 = V ? V.si[0] : NaN, gv1 = V ? V.gainBasis[0] : 0;
+  const vN = V ? V.si[last] : NaN, gvN = V ? V.gainBasis[last] : 0;
   const T1 = T.si[0], TN = T.si[last], gT1 = T.gainBasis[0], gTN = T.gainBasis[last];
   const TaNom = Ta?.value ?? 0;
   const hNom = h?.value ?? 0;
@@ -164,7 +184,7 @@ export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | n
   const g = (x: Float64Array, i: number, dflt: number) => (i >= 0 ? x[i] : dflt);
   const z = (x: Float64Array, i: number) => (i >= 0 ? x[i] : 0);
 
-  const out = new Float64Array(11);
+  const out = new Float64Array(13);
   const parts = (x: Float64Array): number => {
     // Work (exact in the systematic parts, linear in the per-reading random parts).
     let W = 0;
@@ -197,26 +217,42 @@ export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | n
       leakIntegral = s.ST + aT * s.SgT + bT * s.tTot - g(x, iTa, TaNom) * s.tTot + wT1 * eT1 + wTN * eTN + sT.interiorK * z(x, sT.interior);
       leak = g(x, iH, hNom) * leakIntegral;
     }
-    const wallQ = g(x, iWall, wallNom);
-    const Q = Qel - leak - wallQ;
     const T1x = T1 + aT * gT1 + bT + eT1;
     const TNx = TN + aT * gTN + bT + eTN;
+    // Wall uptake: a fixed amount as entered, plus C·ΔT of a gas vessel's wall (the temperature offset cancels).
+    const wallQ = g(x, iWall, wallNom) + (!calorimeter && C ? g(x, iC, CNom) * (TNx - T1x) : 0);
+    const Q = Qel - leak - wallQ;
     let dU: number;
+    let dUideal: number;
+    let dUdep = 0;
     let n: number | null = null;
-    if (calorimeter) dU = g(x, iC, CNom) * (TNx - T1x); // ΔU = C·ΔT
+    if (calorimeter) dU = dUideal = g(x, iC, CNom) * (TNx - T1x); // ΔU = C·ΔT
     else {
+      // Volume offsets (channel full scale and calibration, dead or vessel volume) shift V1 and so n.
+      const volumeOffset = z(x, iVoff) + z(x, sV.fs) + z(x, sV.cal);
       if (am.kind === 'moles') n = g(x, iN, am.n.value);
       else if (am.kind === 'mass') n = g(x, iM, am.m.value) / g(x, iMM, am.M.value); // n = m/M
       else {
         const P1x = p1 + aP * gp1 + betaP + z(x, sP.first);
-        const V1x = v1 + cGain * gv1 + z(x, iVoff) + z(x, sV.first);
+        const V1x = v1 + cGain * gv1 + volumeOffset + z(x, sV.first);
         n = (P1x * V1x) / (g(x, iZ, am.kind === 'initialState' ? am.Z.value : 1) * R_GAS * T1x); // n = PV/(ZRT)
       }
-      dU = n * cvIntegral(gasModel!, T1x, TNx); // ΔU = n∫Cv dT
+      dUideal = n * cvIntegral(gasModel!, T1x, TNx); // ΔU° = n∫Cv dT
+      if (departure === 'pressure') {
+        const P1x = p1 + aP * gp1 + betaP + z(x, sP.first);
+        const PNx = pN + aP * gpN + betaP + z(x, sP.lastR);
+        dUdep = n * (departureAtPressure(realGas!.critical, TNx, PNx) - departureAtPressure(realGas!.critical, T1x, P1x));
+      } else if (departure === 'volume') {
+        const V1x = v1 + cGain * gv1 + volumeOffset + z(x, sV.first);
+        const VNx = vN + cGain * gvN + volumeOffset + z(x, sV.lastR);
+        dUdep = n * (departureAtVolume(realGas!.critical, TNx, VNx / n) - departureAtVolume(realGas!.critical, T1x, V1x / n));
+      }
+      dUdep *= 1 + z(x, iDep);
+      dU = dUideal + dUdep;
     }
     // Written into a reused buffer: the Monte Carlo calls this 10⁵ times and must not allocate.
     out[0] = W; out[1] = Qel; out[2] = leak; out[3] = wallQ; out[4] = Q; out[5] = dU; out[6] = dU - (Q - W);
-    out[7] = n ?? NaN; out[8] = T1x; out[9] = TNx; out[10] = leakIntegral;
+    out[7] = n ?? NaN; out[8] = T1x; out[9] = TNx; out[10] = leakIntegral; out[11] = dUideal; out[12] = dUdep;
     return out[6];
   };
 
@@ -224,8 +260,12 @@ export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | n
   parts(x0);
   const nominal = {
     W: out[0], Qel: out[1], leak: out[2], wall: out[3], Q: out[4], dU: out[5], r: out[6],
-    n: Number.isNaN(out[7]) ? null : out[7], T1: out[8], T2: out[9], leakIntegral: out[10],
+    n: Number.isNaN(out[7]) ? null : out[7], T1: out[8], T2: out[9], leakIntegral: out[10], dUideal: out[11], dUdeparture: out[12],
   };
+  const departureMethod = calorimeter ? null : !realGas ? 'ideal gas (no real-gas departure)'
+    : departure === 'pressure' ? 'second-virial departure −n·T·P·dB/dT at the first and last reading (Tsonopoulos 1974)'
+    : departure === 'volume' ? 'second-virial departure −n·R·T²·(dB/dT)/V_m at the first and last reading (Tsonopoulos 1974)'
+    : 'no real-gas departure: neither pressure nor volume is known';
   return {
     inputs,
     evaluate: (x) => {
@@ -234,5 +274,6 @@ export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | n
     },
     residual: parts,
     nominal,
+    departureMethod,
   };
 }

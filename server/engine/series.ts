@@ -28,6 +28,9 @@ export interface ChannelSeries {
 export interface Scalar {
   value: number;
   u: number;
+  /** Budget row and group, when the value comes from an instrument of the register (the barometer). */
+  label?: string;
+  group?: string;
 }
 
 export interface RunSeries {
@@ -90,6 +93,24 @@ function channel(doc: RunDocument, key: ChannelKey, kind: UnitKind, raw: number[
   };
 }
 
+/**
+ * The barometric pressure in Pa with its standard uncertainty: the typed u, combined with the components of the
+ * barometer's specification when an instrument of the register is named (GUM 5.1.2, one reading: its gain
+ * times the reading, full-scale and calibration offsets and the per-reading part, root-sum-square).
+ */
+function barometric(doc: RunDocument): Scalar | undefined {
+  const q = doc.ambient?.pressure;
+  if (!q) return undefined;
+  const base = scalar(q, 'pressure')!;
+  const inst = instrumentOf(doc, q.instrument);
+  if (!inst) return base;
+  const k = components(inst);
+  const factor = differenceToSi('pressure', q.unit, 1);
+  const inUnit = Math.hypot(q.u ?? 0, k.gain * q.value, k.fullScaleOffset, k.calibrationOffset, k.random);
+  const name = inst.name ? `${inst.id} ${inst.name}` : inst.id;
+  return { value: base.value, u: factor * inUnit, label: `barometric pressure (${name})`, group: inst.id };
+}
+
 export function buildSeries(doc: RunDocument): RunSeries {
   const r = doc.readings;
   const N = r.time.values.length;
@@ -101,7 +122,7 @@ export function buildSeries(doc: RunDocument): RunSeries {
     t = new Float64Array(N);
     for (let i = 0; i < N; i++) t[i] = f * tv[i];
   }
-  const ambientPressure = scalar(doc.ambient?.pressure, 'pressure');
+  const ambientPressure = barometric(doc);
   const gauge = r.pressure?.reference === 'gauge';
   if (gauge && !ambientPressure) throw new Error('gauge pressure needs ambient.pressure (barometric) to become absolute');
   const P = r.pressure ? channel(doc, 'pressure', 'pressure', r.pressure.values, r.pressure.unit, r.pressure.instrument, gauge ? ambientPressure!.value : 0) : undefined;

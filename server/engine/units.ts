@@ -1,7 +1,7 @@
 // Unit factors to SI. One explicit table; every factor is exact by definition (NIST SP 811 (2008) App. B.8,
 // SI Brochure 9th ed.). Conversions are affine: SI = factor * value + offset.
 
-export type PressureUnit = 'Pa' | 'kPa' | 'MPa' | 'bar' | 'mbar' | 'atm' | 'psi' | 'torr' | 'mmHg';
+export type PressureUnit = 'Pa' | 'hPa' | 'kPa' | 'MPa' | 'bar' | 'mbar' | 'atm' | 'psi' | 'torr' | 'mmHg';
 export type VolumeUnit = 'm3' | 'L' | 'mL' | 'cm3';
 export type LengthUnit = 'm' | 'mm';
 export type TemperatureUnit = 'K' | 'degC' | 'degF';
@@ -10,7 +10,7 @@ export type HeatCapacityUnit = 'J/K' | 'kJ/K' | 'cal_th/K';
 export type VoltageUnit = 'V' | 'mV';
 export type CurrentUnit = 'A' | 'mA';
 export type PowerUnit = 'W' | 'mW';
-export type TimeUnit = 's' | 'min' | 'h';
+export type TimeUnit = 'ms' | 's' | 'min' | 'h';
 export type MassUnit = 'kg' | 'g' | 'mg';
 export type ConductanceUnit = 'W/K';
 
@@ -25,6 +25,7 @@ const ATM = 101325; // 10th CGPM (1954)
 
 export const PRESSURE_FACTORS: Readonly<Record<PressureUnit, number>> = {
   Pa: 1,
+  hPa: 1e2, // SI prefix hecto (SI Brochure 9th ed., Table 7); barometers read hPa = mbar
   kPa: 1e3,
   MPa: 1e6,
   bar: 1e5,
@@ -43,7 +44,7 @@ export const HEAT_CAPACITY_FACTORS: Readonly<Record<HeatCapacityUnit, number>> =
 export const VOLTAGE_FACTORS: Readonly<Record<VoltageUnit, number>> = { V: 1, mV: 1e-3 };
 export const CURRENT_FACTORS: Readonly<Record<CurrentUnit, number>> = { A: 1, mA: 1e-3 };
 export const POWER_FACTORS: Readonly<Record<PowerUnit, number>> = { W: 1, mW: 1e-3 };
-export const TIME_FACTORS: Readonly<Record<TimeUnit, number>> = { s: 1, min: 60, h: 3600 };
+export const TIME_FACTORS: Readonly<Record<TimeUnit, number>> = { ms: 1e-3, s: 1, min: 60, h: 3600 };
 export const MASS_FACTORS: Readonly<Record<MassUnit, number>> = { kg: 1, g: 1e-3, mg: 1e-6 };
 export const CONDUCTANCE_FACTORS: Readonly<Record<ConductanceUnit, number>> = { 'W/K': 1 };
 

@@ -21,7 +21,8 @@ export function shoelaceArea(P: ArrayLike64, V: ArrayLike64): number {
   return -a / 2;
 }
 
-export type ClaimedProcess = 'isobaric' | 'isochoric' | 'isothermal' | 'adiabatic' | 'polytropic' | 'calorimetric';
+/** 'free-form': a path that follows no named process (loops, free paths); no model work and no claim flags. */
+export type ClaimedProcess = 'isobaric' | 'isochoric' | 'isothermal' | 'adiabatic' | 'polytropic' | 'calorimetric' | 'free-form';
 
 export interface ModelWorkInput {
   process: ClaimedProcess;
@@ -56,5 +57,7 @@ export function modelWork(m: ModelWorkInput): { value: number | null; formula: s
       return { value: (m.P1 * m.V1 - m.P2 * m.V2) / (m.index - 1), formula: '(P1·V1 − P2·V2)/(n − 1)' };
     case 'calorimetric':
       return { value: null, formula: 'no gas work modelled for a calorimetric run' };
+    case 'free-form':
+      return { value: null, formula: 'no model work: the run claims no named process' };
   }
 }

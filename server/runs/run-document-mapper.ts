@@ -8,11 +8,11 @@ import { CHANNELS, channelNames, type ChannelName, type ChannelSetup, type RunSe
 export type ReadingRow = Omit<InferSelectModel<typeof readings>, 'runId'>;
 type RegisterInstrument = InferSelectModel<typeof instruments> & { calibration: InferSelectModel<typeof calibrations> | null };
 
-const TIME_FACTORS = { s: 1, min: 60, h: 3600 } as const;
+const TIME_FACTORS = { ms: 1e-3, s: 1, min: 60, h: 3600 } as const;
 
 /** Readings as people send them: one array per channel, in the channel's own unit. */
 export interface ReadingsInput {
-  time: { unit: 's' | 'min' | 'h' | 'iso'; values: Array<number | string> };
+  time: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; values: Array<number | string> };
   channels: Partial<Record<ChannelName, ChannelSetup & { values: Array<number | null> }>>;
 }
 

@@ -36,7 +36,7 @@ export interface RunSetup {
   apparatusSource?: 'register' | 'run';
   /** Instruments described in the run itself rather than in the register. */
   instruments?: Instrument[];
-  time?: { unit: 's' | 'min' | 'h' | 'iso'; origin?: string };
+  time?: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; origin?: string };
   channels?: Partial<Record<ChannelName, ChannelSetup>>;
   notes?: string;
 }

@@ -1,0 +1,1 @@
+ALTER TYPE "public"."process" ADD VALUE 'free-form';
