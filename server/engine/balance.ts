@@ -1,5 +1,8 @@
 // The orchestrator: run document in, energy balance with its uncertainty, verdict, flags and hints out.
+import { analyseCalorimetry, electricalHeat, type HeatLeakFit } from './calorimetry';
 import { sha256Canonical } from './canonical';
+import type { EnergyEquivalent } from './energy-equivalent';
+import { RISE_METHODS, type RiseMethod, type TemperatureRise } from './temperature-rise';
 import { dataQualityFlags, type Flag } from './flags';
 import { checkRange, equipartitionModel, gamma, speciesModel, type HeatCapacityModel } from './gases';
 import { breakHints, indeterminateHints, type Hint, type Outcome } from './hints';
@@ -23,6 +26,8 @@ export interface BalanceSettings {
   seed?: number | string;
   /** U(r) above this fraction of max(|Q|, |W|, |ΔU|) makes the verdict indeterminate (default 0.20). */
   indeterminateFraction?: number;
+  /** Corrected-rise method a calorimetric result uses (a lab setting; default Regnault–Pfaundler). */
+  riseMethod?: RiseMethod;
 }
 
 export interface BudgetEntry {
@@ -66,6 +71,12 @@ export interface BalanceResult {
   polytropicFit: { index: number; uIndex: number; rSquared: number; points: number; claimedIndex: number | 'infinite' | null } | null;
   flags: Flag[];
   hints: Hint[];
+  /** Calorimetric runs (gas.model "calorimeter" or purpose "standardization"): corrected rise, fitted heat leak. */
+  purpose: 'measurement' | 'standardization';
+  temperatureRise: TemperatureRise | null;
+  heatLeakFit: HeatLeakFit | null;
+  /** Standardization runs: ε = Q_known / ΔT_corrected, J/K. */
+  energyEquivalent: EnergyEquivalent | null;
 }
 
 export type CheckResult = { ok: true; result: BalanceResult } | { ok: false; errors: ValidationError[] };
@@ -77,7 +88,7 @@ export class EngineInputError extends Error {
   }
 }
 
-const DEFAULTS = { coverageFactor: 2, draws: 100_000, indeterminateFraction: 0.2 };
+const DEFAULTS = { coverageFactor: 2, draws: 100_000, indeterminateFraction: 0.2, riseMethod: 'regnault-pfaundler' as RiseMethod };
 /** Upper bound on Monte Carlo draws per request (memory: 8 bytes per draw). */
 export const MAX_DRAWS = 10_000_000;
 
@@ -132,6 +143,7 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
     draws: settings.draws ?? DEFAULTS.draws,
     seed: settings.seed ?? parseInt(documentHash.slice(0, 8), 16),
     indeterminateFraction: settings.indeterminateFraction ?? DEFAULTS.indeterminateFraction,
+    riseMethod: settings.riseMethod ?? DEFAULTS.riseMethod,
   };
   const k = effective.coverageFactor;
   const c = core(doc, k, effective.indeterminateFraction);
@@ -159,7 +171,8 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
   const fit = hasPath ? polytropicFit(series.P!.si, series.V!.si) : null;
   const claimed = claimedIndex(doc.process.claimed, g, doc.process.index);
 
-  const flags = dataQualityFlags({ doc, series, electricalHeat: nom.Qel, work: W, fit, claimedIndex: claimed });
+  const calorimetry = analyseCalorimetry(doc, series, doc.purpose === 'standardization' ? electricalHeat(series, model) : null, { method: effective.riseMethod, k });
+  const flags = [...dataQualityFlags({ doc, series, electricalHeat: nom.Qel, work: W, fit, claimedIndex: claimed }), ...calorimetry.flags];
 
   const u2 = ur * ur;
   const budget: BudgetEntry[] = model.inputs.map((q, j) => ({
@@ -235,6 +248,10 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
     polytropicFit: fit ? { ...fit, claimedIndex: claimed === null ? null : Number.isFinite(claimed) ? claimed : 'infinite' } : null,
     flags,
     hints,
+    purpose: doc.purpose ?? 'measurement',
+    temperatureRise: calorimetry.temperatureRise,
+    heatLeakFit: calorimetry.heatLeakFit,
+    energyEquivalent: calorimetry.energyEquivalent,
   };
 }
 
@@ -268,5 +285,6 @@ export function validateSettings(settings: BalanceSettings): ValidationError[] {
   if (draws !== undefined && !(Number.isInteger(draws) && draws >= 0 && draws <= MAX_DRAWS)) errors.push({ path: 'settings.draws', message: `must be an integer from 0 to ${MAX_DRAWS}` });
   if (seed !== undefined && !(typeof seed === 'string' || Number.isFinite(seed))) errors.push({ path: 'settings.seed', message: 'must be a number or a string' });
   if (f !== undefined && !(typeof f === 'number' && f > 0 && Number.isFinite(f))) errors.push({ path: 'settings.indeterminateFraction', message: 'must be a number greater than 0' });
+  if (settings.riseMethod !== undefined && !RISE_METHODS.includes(settings.riseMethod)) errors.push({ path: 'settings.riseMethod', message: `must be one of ${RISE_METHODS.join(', ')}` });
   return errors;
 }

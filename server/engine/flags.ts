@@ -15,7 +15,12 @@ export type FlagCode =
   | 'ISOTHERMAL_DRIFT'
   | 'ISOCHORIC_VOLUME_CHANGE'
   | 'ADIABATIC_HEATER_POWER'
-  | 'INDEX_FAR_FROM_CLAIM';
+  | 'INDEX_FAR_FROM_CLAIM'
+  // calorimetry (calorimetry.ts) and the apparatus's standardization (server/standardizations)
+  | 'PERIODS_NOT_FOUND'
+  | 'RISE_METHODS_DISAGREE'
+  | 'HEAT_LEAK_DISAGREES'
+  | 'STANDARDIZATION_DUE';
 
 export interface Flag {
   code: FlagCode;

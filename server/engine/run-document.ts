@@ -2,6 +2,7 @@
 // and its validation into a list of { path, message } problems.
 import { SPECIES, type Species } from './gases';
 import type { InstrumentSpec } from './instrument-uncertainty';
+import { validateCalorimetryFields, type CalorimetryFields } from './run-document-calorimetry';
 import { isIsoDate, isUnit, unitsOf, type UnitKind } from './units';
 import type { ClaimedProcess } from './work';
 
@@ -72,7 +73,7 @@ export interface Apparatus {
   vesselVolume?: Quantity;
 }
 
-export interface RunDocument {
+export interface RunDocument extends CalorimetryFields {
   format: typeof RUN_FORMAT;
   version: typeof RUN_FORMAT_VERSION;
   id?: string;
@@ -207,6 +208,7 @@ export function validateRunDocument(input: unknown): ValidationResult {
   }
   const channels = validateReadings(input['readings'], c, instrumentIds);
 
+  validateCalorimetryFields(input, (p, m) => c.add(p, m), { channels, timeUnit: isObject(input['readings']) ? (input['readings'] as Record<string, unknown>)['time'] : undefined });
   // Cross-field rules: each says which fields disagree and what would fix it.
   if (channels) {
     const has = (k: string) => channels.has(k);

@@ -35,6 +35,8 @@ export interface RunModel {
   inputs: ModelInput[];
   /** [W, Q, ΔU, r] in J at the given inputs. */
   evaluate(x: Float64Array): number[];
+  /** Electrical heat ∫U·I dt (or ∫P dt) alone, J: the known heat of an electrical standardization. */
+  electrical(x: Float64Array): number[];
   /** r only (the Monte Carlo hot path). */
   residual(x: Float64Array): number;
   nominal: {
@@ -271,6 +273,10 @@ export function buildRunModel(series: RunSeries, gasModel: HeatCapacityModel | n
     evaluate: (x) => {
       parts(x);
       return [out[0], out[4], out[5], out[6]];
+    },
+    electrical: (x) => {
+      parts(x);
+      return [out[1]];
     },
     residual: parts,
     nominal,
