@@ -12,6 +12,7 @@ import { labRouter } from './lab/lab-router';
 import { peopleRouter } from './people/people-router';
 import { projectsRouter } from './projects/projects-router';
 import { runsRouter } from './runs/runs-router';
+import { standardizationRouter } from './standardizations/standardization-router';
 
 /** Every signed-in API resource; each router applies its own role checks per route. */
 export function apiRoutes(db: Database, config: Config, queue: JobQueue | null): Router {
@@ -26,5 +27,6 @@ export function apiRoutes(db: Database, config: Config, queue: JobQueue | null):
   router.use('/people', peopleRouter(db));
   router.use('/projects', projectsRouter(db));
   router.use('/', labRouter(db));
+  router.use('/', standardizationRouter(db));
   return router;
 }

@@ -4,3 +4,4 @@ export * from './runs';
 export * from './audit';
 export * from './imports';
 export * from './data-versions';
+export * from './standardizations';

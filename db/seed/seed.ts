@@ -8,6 +8,7 @@ import {
   DEMO_INSTITUTION, demoApparatus, demoCalibrations, demoEmail, demoGases, demoInstruments, demoPeople, demoProjects,
 } from './demo-lab';
 import { seedDemoRuns } from './demo-runs';
+import { seedDemoStandardizations } from './demo-standardizations';
 
 const SEED_LOCK = 7_004_312;
 
@@ -48,6 +49,7 @@ export async function seedDemoLab(db: Database, password: string): Promise<boole
     );
     await tx.insert(apparatus).values(demoApparatus);
     await seedDemoRuns(tx, { byRole, projects: projectRows, today });
+    await seedDemoStandardizations(tx, { byRole, projects: projectRows, today }, DEMO_INSTITUTION);
     await recordAudit(tx, {
       action: 'seed.demo-lab',
       entityType: 'lab',

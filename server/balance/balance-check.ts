@@ -6,6 +6,7 @@ import type { Config } from '../config';
 import { checkRunDocument } from '../engine';
 import { projectAddresses, queueMail } from '../mail/outbox';
 import { loadRunDocument } from '../runs/run-loader';
+import { runStandardization } from '../standardizations/standardization-pin';
 
 export type CheckOutcome = 'stored' | 'stale' | 'invalid';
 
@@ -33,7 +34,8 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
       await queueMail(tx, [{ to: author.email, subject: `Run ${locked.code}: the balance check could not run`, body: checked.errors.map((e) => `${e.path}: ${e.message}`).join('\n') }]);
       return 'invalid';
     }
-    const result = checked.result;
+    const pin = await runStandardization(tx, locked.apparatusId, locked.runDate);
+    const result = { ...checked.result, standardization: pin.standardization, flags: pin.flag ? [...checked.result.flags, pin.flag] : checked.result.flags };
     await tx.update(balanceResults).set({ current: false }).where(and(eq(balanceResults.runId, runId), eq(balanceResults.current, true)));
     const [stored] = await tx.insert(balanceResults).values({
       runId, runVersion: version, engineVersion: result.engineVersion, inputHash: result.inputHash, verdict: result.verdict,

@@ -1,9 +1,8 @@
-import bcrypt from 'bcryptjs';
 import { and, eq, sql } from 'drizzle-orm';
 import type { Database } from '../../db/client';
 import { balanceResults, people, runs, signatures } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
-import { badRequest, conflict, HttpProblem } from '../core/problem';
+import { badRequest, conflict } from '../core/problem';
 import type { SessionPerson } from '../core/session';
 import { queueMail } from '../mail/outbox';
 import { loadRunFor } from './run-access';
@@ -11,6 +10,7 @@ import { loadReadings } from './run-loader';
 import { approvalMeanings, rejectionMeanings, returnMeanings, type ReviewAction, type SignatureDto } from './review-dto';
 import { nextState } from './run-state-machine';
 import { signedHash } from './signature-hash';
+import { checkSignerPassword } from './signer-password';
 import { insertReadings } from './runs-service';
 
 const meaningsFor: Record<ReviewAction, readonly string[]> = { approve: approvalMeanings, return: returnMeanings, reject: rejectionMeanings };
@@ -31,11 +31,7 @@ export class ReviewService {
     if ((action === 'return' || action === 'reject') && reason.length < 5) {
       throw badRequest(`Say why the run is ${pastTense[action]} (reason, at least 5 characters).`, [{ field: 'reason', message: 'required' }]);
     }
-    const [signer] = await this.db.select({ hash: people.passwordHash }).from(people).where(eq(people.id, person.id));
-    if (!signer || !(await bcrypt.compare(body.password, signer.hash))) {
-      await recordAudit(this.db, { actorId: person.id, actorEmail: person.email, action: 'signature.refused', entityType: 'run', entityId: id, reason: 'wrong password', ip });
-      throw new HttpProblem(401, 'Signature refused', 'The password is not right; nothing was signed.');
-    }
+    await checkSignerPassword(this.db, person, body.password, { type: 'run', id }, ip);
 
     const outcome = await this.db.transaction(async (tx) => {
       // The row lock makes two simultaneous decisions queue up: the second finds the run decided.

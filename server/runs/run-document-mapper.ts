@@ -95,6 +95,9 @@ export function documentToStorage(doc: RunDocument) {
     instruments: doc.instruments,
     time,
     channels: channelSetup,
+    ...(doc.purpose ? { purpose: doc.purpose } : {}),
+    ...(doc.heatSource ? { heatSource: doc.heatSource } : {}),
+    ...(doc.periods ? { periods: doc.periods } : {}),
   };
   return { setup, rows, apparatusConstants: doc.apparatus };
 }
@@ -125,15 +128,17 @@ export interface DocumentContext {
   register: ReadonlyMap<number, RegisterInstrument>;
   lab: string;
   operator: string;
+  /** The approved standardization in force on the run date: its ε replaces the register's heat capacity. */
+  standardization?: { energyEquivalent: number; energyEquivalentU: number } | null;
 }
 
-function apparatusOf(a: DocumentContext['apparatus'], extra: RunSetup['apparatus'], source: RunSetup['apparatusSource']): Apparatus {
+function apparatusOf(a: DocumentContext['apparatus'], extra: RunSetup['apparatus'], source: RunSetup['apparatusSource'], pinned?: DocumentContext['standardization']): Apparatus {
   if (source === 'run') return { ...(extra ?? {}) };
   const q = (value: number | null | undefined, unit: string, u?: number | null) =>
     value === null || value === undefined ? undefined : { value, unit, ...(u !== null && u !== undefined ? { u } : {}) };
   const out: Apparatus = {
     name: extra?.name ?? a?.name,
-    heatCapacity: q(a?.heatCapacity, 'J/K', a?.heatCapacityU),
+    heatCapacity: pinned ? q(pinned.energyEquivalent, 'J/K', pinned.energyEquivalentU) : q(a?.heatCapacity, 'J/K', a?.heatCapacityU),
     heatLossCoefficient: q(a?.heatLossCoefficient, 'W/K', a?.heatLossCoefficientU),
     ratedPressure: q(a?.ratedPressure, 'Pa'),
     pistonBore: q(a?.bore, 'm'),
@@ -183,9 +188,12 @@ export function storageToDocument(ctx: DocumentContext): RunDocument {
     gas,
     ...(setup.amount ? { amount: setup.amount } : {}),
     ambient: setup.ambient ?? {},
-    apparatus: apparatusOf(ctx.apparatus, setup.apparatus, setup.apparatusSource),
+    apparatus: apparatusOf(ctx.apparatus, setup.apparatus, setup.apparatusSource, ctx.standardization),
     instruments: uniqueInstruments,
     readings: readingsOut as unknown as Readings,
+    ...(setup.purpose ? { purpose: setup.purpose } : {}),
+    ...(setup.heatSource ? { heatSource: setup.heatSource } : {}),
+    ...(setup.periods ? { periods: setup.periods } : {}),
   };
 }
 

@@ -2,6 +2,7 @@ import { and, asc, desc, eq, inArray, lte } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
 import { apparatus, calibrations, gases, instruments, people, readings } from '../../db/schema';
 import type { RunDocument } from '../engine';
+import { standardizationInForce } from '../standardizations/standardization-pin';
 import type { RunRow } from './run-access';
 import { storageToDocument, type DocumentContext, type ReadingRow } from './run-document-mapper';
 import type { RunSetup } from './run-setup';
@@ -36,7 +37,8 @@ export async function loadRunDocument(db: DbOrTx, run: RunRow, labName: string):
     run.apparatusId ? db.select().from(apparatus).where(eq(apparatus.id, run.apparatusId)) : Promise.resolve([]),
     db.select({ name: people.name }).from(people).where(eq(people.id, run.authorId)),
   ]);
+  const standardization = run.apparatusId ? await standardizationInForce(db, run.apparatusId, run.runDate) : null;
   return storageToDocument({
-    run, rows, register, gasCode: gas?.code ?? null, apparatus: app ?? null, lab: labName, operator: author?.name ?? '',
+    run, rows, register, gasCode: gas?.code ?? null, apparatus: app ?? null, lab: labName, operator: author?.name ?? '', standardization,
   });
 }

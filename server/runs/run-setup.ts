@@ -1,3 +1,4 @@
+import type { CalorimetryFields } from '../engine/run-document-calorimetry';
 import { CHANNEL_KINDS, type AmountSpec, type Apparatus, type GasSpec, type Instrument, type Quantity } from '../engine/run-document';
 
 /** The reading channels a run can have, and the engine's unit kind for each (the run document's own table). */
@@ -39,4 +40,8 @@ export interface RunSetup {
   time?: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; origin?: string };
   channels?: Partial<Record<ChannelName, ChannelSetup>>;
   notes?: string;
+  /** Calorimetry (docs/run-document.md): a standardization run and its known heat input, and the main period. */
+  purpose?: CalorimetryFields['purpose'];
+  heatSource?: CalorimetryFields['heatSource'];
+  periods?: CalorimetryFields['periods'];
 }

@@ -1,0 +1,164 @@
+// Standardization series of a calorimeter, their approval with an electronic signature, and changes to the
+// apparatus that make a new standardization due.
+import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import type { Database, DbOrTx } from '../../db/client';
+import { apparatus, apparatusChanges, people, standardizations } from '../../db/schema';
+import { recordAudit } from '../audit/audit-service';
+import { badRequest, notFound } from '../core/problem';
+import type { SessionPerson } from '../core/session';
+import { sha256Canonical } from '../engine';
+import { summariseSeries, type AcceptanceRule, type SeriesSummary } from '../engine/control-chart';
+import { checkSignerPassword } from '../runs/signer-password';
+import { standardizationFigures } from './standardization-figures';
+import type { ApparatusChangeDto, ApproveStandardizationDto } from './standardization-dto';
+import { standardizationMeanings } from './standardization-dto';
+import { changeUncovered, latestChange, type StandardizationRow } from './standardization-pin';
+
+export interface SeriesRun {
+  runId: number;
+  code: string;
+  runDate: string;
+  state: string;
+  energyEquivalent: { value: number; u: number };
+  heatLoss: { value: number; u: number } | null;
+  inputHash: string;
+  accepted: boolean;
+  outOfControl: boolean;
+  rule: string | null;
+}
+
+type RawRun = { id: number; code: string; run_date: string; state: string; ee: { value: number; u: number }; h: { value: number; u: number } | null; input_hash: string };
+
+const round = (x: number) => (Number.isFinite(x) ? x : null);
+
+export class StandardizationService {
+  constructor(private readonly db: Database, private readonly rule: AcceptanceRule) {}
+
+  private async apparatusRow(db: DbOrTx, id: number) {
+    const [row] = await db.select().from(apparatus).where(eq(apparatus.id, id));
+    if (!row) throw notFound(`There is no apparatus with id ${id}.`);
+    return row;
+  }
+
+  /** Standardization runs of the apparatus (submitted or approved, latest revision) with a computed ε, in date order. */
+  async series(db: DbOrTx, apparatusId: number): Promise<{ runs: SeriesRun[]; summary: SeriesSummary }> {
+    const rows = [...await db.execute<RawRun>(sql`
+      SELECT r.id, r.code, r.run_date::text AS run_date, r.state, b.result->'energyEquivalent' AS ee,
+             b.result->'heatLeakFit'->'h' AS h, b.input_hash
+      FROM runs r JOIN balance_results b ON b.run_id = r.id AND b.current
+      WHERE r.apparatus_id = ${apparatusId} AND r.setup->>'purpose' = 'standardization'
+        AND r.state IN ('submitted', 'approved')
+        AND jsonb_typeof(b.result->'energyEquivalent') = 'object'
+        AND NOT EXISTS (SELECT 1 FROM runs n WHERE n.previous_revision_id = r.id)
+      ORDER BY r.run_date, r.id`)];
+    const summary = summariseSeries(rows.map((r) => ({ date: r.run_date, value: r.ee.value })), this.rule);
+    const runs = rows.map((r, i) => {
+      const b = summary.breaks[i];
+      return {
+        runId: r.id, code: r.code, runDate: r.run_date, state: r.state,
+        energyEquivalent: { value: r.ee.value, u: r.ee.u }, heatLoss: r.h ? { value: r.h.value, u: r.h.u } : null, inputHash: r.input_hash,
+        accepted: b === null, outOfControl: b !== null, rule: b ? `test ${b.test}: ${b.rule}` : null,
+      };
+    });
+    return { runs, summary };
+  }
+
+  private async withSigner(rows: StandardizationRow[]) {
+    const names = new Map((await this.db.select({ id: people.id, name: people.name }).from(people)).map((p) => [p.id, p.name]));
+    return rows.map((s) => ({
+      id: s.id, energyEquivalent: { value: s.energyEquivalent, u: s.energyEquivalentU },
+      heatLossCoefficient: s.heatLossCoefficient === null ? null : { value: s.heatLossCoefficient, u: s.heatLossCoefficientU },
+      runIds: s.runIds, summary: s.summary, effectiveFrom: s.effectiveFrom, signedBy: names.get(s.signerId) ?? '', meaning: s.meaning,
+      reason: s.reason, signedHash: s.signedHash, signedAt: s.signedAt.toISOString(),
+    }));
+  }
+
+  /** GET /api/apparatus/:id/standardizations */
+  async overview(apparatusId: number) {
+    const app = await this.apparatusRow(this.db, apparatusId);
+    const { runs, summary } = await this.series(this.db, apparatusId);
+    const history = await this.withSigner(await this.db.select().from(standardizations).where(eq(standardizations.apparatusId, apparatusId)).orderBy(desc(standardizations.signedAt), desc(standardizations.id)));
+    const changes = await this.db.select({ id: apparatusChanges.id, description: apparatusChanges.description, changedOn: apparatusChanges.changedOn, recordedAt: apparatusChanges.recordedAt, recordedBy: people.name })
+      .from(apparatusChanges).innerJoin(people, eq(people.id, apparatusChanges.recordedBy)).where(eq(apparatusChanges.apparatusId, apparatusId)).orderBy(desc(apparatusChanges.recordedAt));
+    const today = new Date().toISOString().slice(0, 10);
+    const current = history.find((s) => s.effectiveFrom <= today) ?? null;
+    const latest = await latestChange(this.db, apparatusId);
+    const [latestStd] = await this.db.select().from(standardizations).where(eq(standardizations.apparatusId, apparatusId)).orderBy(desc(standardizations.signedAt)).limit(1);
+    const due = changeUncovered(latest, latestStd ?? null);
+    return {
+      apparatus: { id: app.id, tag: app.tag, name: app.name, kind: app.kind },
+      current,
+      due: due ? { since: latest!.changedOn, description: latest!.description } : null,
+      series: runs.map(({ inputHash: _h, heatLoss: _l, ...r }) => r),
+      chart: summary.chart,
+      summary: { n: summary.n, days: summary.days, mean: round(summary.mean), sd: round(summary.sd), uMean: round(summary.uMean), rsd: round(summary.rsd), acceptance: summary.acceptance },
+      rule: this.rule,
+      history,
+      changes: changes.map((c) => ({ ...c, recordedAt: c.recordedAt.toISOString() })),
+    };
+  }
+
+  /** POST /api/apparatus/:id/standardizations: the quality officer signs the mean ε of selected accepted runs. */
+  async approve(person: SessionPerson, apparatusId: number, body: ApproveStandardizationDto, ip: string | null) {
+    if (!(standardizationMeanings as readonly string[]).includes(body.meaning)) {
+      throw badRequest(`meaning must be one of: ${standardizationMeanings.map((m) => `"${m}"`).join(', ')}.`, [{ field: 'meaning', message: 'not a meaning for this approval' }]);
+    }
+    await this.apparatusRow(this.db, apparatusId);
+    await checkSignerPassword(this.db, person, body.password, { type: 'apparatus', id: apparatusId }, ip);
+    return this.db.transaction(async (tx) => {
+      await tx.select({ id: apparatus.id }).from(apparatus).where(eq(apparatus.id, apparatusId)).for('update');
+      const { runs } = await this.series(tx, apparatusId);
+      const byId = new Map(runs.map((r) => [r.runId, r]));
+      const wanted = [...new Set(body.runIds)];
+      const problems = wanted.flatMap((id) => {
+        const r = byId.get(id);
+        if (!r) return [{ field: 'runIds', message: `run ${id} is not a submitted or approved standardization run of this apparatus with an energy equivalent` }];
+        if (!r.accepted) return [{ field: 'runIds', message: `run ${r.code} is out of control (${r.rule}); leave it out or investigate it first` }];
+        return [];
+      });
+      if (problems.length) throw badRequest(problems.map((p) => p.message).join('; '), problems);
+      const chosen = runs.filter((r) => wanted.includes(r.runId));
+      const f = standardizationFigures(chosen, this.rule);
+      const s = f.summary;
+      if (!s.acceptance.ok) throw badRequest(`The selected runs do not meet the lab's acceptance rule: ${s.acceptance.reasons.join('; ')}.`, s.acceptance.reasons.map((message) => ({ field: 'runIds', message })));
+      const u = f.energyEquivalent.u;
+      const hMean = f.heatLossCoefficient?.value ?? null;
+      const hU = f.heatLossCoefficient?.u ?? null;
+      const signedHash = sha256Canonical({ apparatusId, runs: chosen.map((r) => ({ id: r.runId, inputHash: r.inputHash, energyEquivalent: r.energyEquivalent })) });
+      const today = new Date().toISOString().slice(0, 10);
+      const summary = { n: s.n, days: s.days, mean: s.mean, sd: s.sd, uMean: s.uMean, rsd: s.rsd, chart: s.chart, rule: this.rule };
+      const [row] = await tx.insert(standardizations).values({
+        apparatusId, energyEquivalent: s.mean, energyEquivalentU: u, heatLossCoefficient: hMean, heatLossCoefficientU: hU,
+        runIds: chosen.map((r) => r.runId), summary, effectiveFrom: today, signerId: person.id, meaning: body.meaning,
+        reason: body.reason?.trim() || null, signedHash,
+      }).returning();
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'standardization.approve', entityType: 'apparatus', entityId: apparatusId, after: { standardizationId: row.id, energyEquivalent: s.mean, u, runIds: row.runIds, effectiveFrom: today }, reason: row.reason, ip });
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'signature.create', entityType: 'standardization', entityId: row.id, after: { apparatusId, meaning: body.meaning, signedHash }, reason: row.reason, ip });
+      return (await this.withSigner([row]))[0];
+    });
+  }
+
+  /** POST /api/apparatus/:id/changes: a part replaced or a repair; the apparatus needs a new standardization. */
+  async recordChange(person: SessionPerson, apparatusId: number, body: ApparatusChangeDto, ip: string | null) {
+    return this.db.transaction(async (tx) => {
+      await this.apparatusRow(tx, apparatusId);
+      const changedOn = body.changedOn ?? new Date().toISOString().slice(0, 10);
+      const [row] = await tx.insert(apparatusChanges).values({ apparatusId, description: body.description.trim(), changedOn, recordedBy: person.id }).returning();
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'apparatus.change', entityType: 'apparatus', entityId: apparatusId, after: { changeId: row.id, description: row.description, changedOn }, ip });
+      return { ...row, recordedAt: row.recordedAt.toISOString() };
+    });
+  }
+
+  /** Apparatus whose latest change has no standardization signed after it (for the homes). */
+  async due() {
+    const rows = await this.db.select().from(apparatus).orderBy(asc(apparatus.tag));
+    const out = [];
+    for (const a of rows) {
+      const change = await latestChange(this.db, a.id);
+      if (!change) continue;
+      const [std] = await this.db.select().from(standardizations).where(and(eq(standardizations.apparatusId, a.id))).orderBy(desc(standardizations.signedAt)).limit(1);
+      if (changeUncovered(change, std ?? null)) out.push({ id: a.id, tag: a.tag, name: a.name, since: change.changedOn, description: change.description });
+    }
+    return out;
+  }
+}
