@@ -55,6 +55,10 @@ const matrix: Record<string, Who[] | 'public'> = {
   'GET /api/apparatus': everyone,
   'POST /api/apparatus': ['quality'],
   'PUT /api/apparatus/:id': ['quality'],
+  'GET /api/apparatus-due': everyone,
+  'GET /api/apparatus/:id/standardizations': everyone,
+  'POST /api/apparatus/:id/standardizations': ['quality'],
+  'POST /api/apparatus/:id/changes': ['quality'],
 };
 
 let h: ApiHarness;
