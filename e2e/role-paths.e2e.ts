@@ -41,6 +41,7 @@ describe('a technician at the bench', () => {
     }
     await choose('Pressure instrument', /PG-2/);
     await choose('Temperature instrument', /TC-7/);
+    await choose('Volume instrument', /SV-1/); // a channel with no instrument is refused at submit
     // The readings: typed cell by cell, Tab to the right, Enter down.
     await page.getByLabel('Reading 1, time in s').focus();
     const rows = [[0, 97.8, 250, 21.0], [10, 122.3, 200, 21.0], [20, 163.1, 150, 21.1], [30, 244.6, 100, 21.0], [40, 489.2, 50, 21.1]];

@@ -5,6 +5,7 @@ import { writeFileSync, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { cv, speciesModel, equipartitionModel, type HeatCapacityModel } from '../server/engine/gases';
 import { createRng } from '../server/engine/random';
+import { criticalConstants, departureAtPressure } from '../server/engine/real-gas';
 import { R_GAS, fromSi, pistonArea } from '../server/engine/units';
 
 const OUT = join(__dirname, '..', 'fixtures', 'runs');
@@ -22,8 +23,9 @@ const INSTRUMENTS = {
   tc7: { id: 'TC-7', name: 'Pt100', resolution: 0.01, repeatability: 0.01, calibration: { U: 0.05, k: 2 }, range: { min: 70, max: 500 }, calibrationDate: '2025-12-01', dueDate: '2026-12-01' },
   tc9: { id: 'TC-9', name: 'Pt100', resolution: 0.001, repeatability: 0.002, calibration: { U: 0.01, k: 2 }, range: { min: 0, max: 50 }, calibrationDate: '2025-12-01', dueDate: '2026-12-01' },
   tf3: { id: 'TF-3', name: 'thermistor probe (°F display)', resolution: 0.01, repeatability: 0.02, calibration: { U: 0.1, k: 2 }, range: { min: -40, max: 300 }, calibrationDate: '2025-08-15', dueDate: '2026-08-15' },
-  dm4: { id: 'DM-4', name: 'voltmeter', percentOfReading: 0.02, resolution: 0.001, range: { min: -0.1, max: 30 }, calibration: { U: 0.002, k: 2 }, calibrationDate: '2025-07-01', dueDate: '2026-07-01' },
-  dm6: { id: 'DM-6', name: 'ammeter', percentOfReading: 0.05, resolution: 0.01, range: { min: -10, max: 3000 }, calibration: { U: 0.05, k: 2 }, calibrationDate: '2025-07-01', dueDate: '2026-07-01' },
+  // The meters' repeatability is the noise drawn below for their readings (their specification states it).
+  dm4: { id: 'DM-4', name: 'voltmeter', percentOfReading: 0.02, resolution: 0.001, repeatability: 0.0003, range: { min: -0.1, max: 30 }, calibration: { U: 0.002, k: 2 }, calibrationDate: '2025-07-01', dueDate: '2026-07-01' },
+  dm6: { id: 'DM-6', name: 'ammeter', percentOfReading: 0.05, resolution: 0.01, repeatability: 0.05, range: { min: -10, max: 3000 }, calibration: { U: 0.05, k: 2 }, calibrationDate: '2025-07-01', dueDate: '2026-07-01' },
 };
 
 function header(id: string, title: string, claimed: string, extra: Record<string, unknown> = {}) {
@@ -65,6 +67,9 @@ const pistonApparatus = (extra: Record<string, unknown> = {}) => ({
   ratedPressure: { value: 10, unit: 'bar' }, ...extra,
 });
 
+/** The piston cell's heater element (invented): 20 Ω. */
+const HEATER_OHMS = 20;
+
 function isothermal(): void {
   const n = 0.04, T = 300, N = 201, dt = 1;
   const x0 = 0.1, x1 = 0.3; // m of piston travel
@@ -74,7 +79,7 @@ function isothermal(): void {
     const V = DEAD + AREA * xs;
     const P = (n * R_GAS * T) / V;
     const power = (P * AREA * (x1 - x0)) / ((N - 1) * dt); // heater matches P·dV/dt to hold T
-    const volts = 3.2;
+    const volts = Math.sqrt(power * HEATER_OHMS); // a fixed heater resistance: U = √(P·R), I = U/R
     t.push(k * dt);
     p.push(noisy(P / 1000, 0.02, 0.01));
     x.push(noisy(xs * 1000, 0.005, 0.01));
@@ -215,7 +220,10 @@ function polytropic(): void {
   // Heat that must leave for this path, Q = ΔU + W, carried by the leak h·∫(T − T_amb)dt.
   const V1 = DEAD + AREA * x1;
   const W = (P0 * V0 - Ps[N - 1] * V1) / (index - 1);
-  const dU = n * (model.cpIntegral(T0, Ts[N - 1]) - R_GAS * (Ts[N - 1] - T0));
+  // ΔU of the real gas: the ideal ∫Cv dT plus the engine's second-virial departure (server/engine/real-gas.ts).
+  const co2 = criticalConstants('CO2')!;
+  const dU = n * (model.cpIntegral(T0, Ts[N - 1]) - R_GAS * (Ts[N - 1] - T0))
+    + n * (departureAtPressure(co2, Ts[N - 1], Ps[N - 1]) - departureAtPressure(co2, T0, P0));
   let leakInt = 0;
   for (let k = 0; k + 1 < N; k++) leakInt += 0.5 * (Ts[k] + Ts[k + 1] - 2 * Ta) * dt;
   const h = -(dU + W) / leakInt;

@@ -39,6 +39,8 @@ export const demoInstruments = [
   { tag: 'TC-7', name: 'Pt100 probe, piston cell', kind: 'temperature', manufacturer: 'Orrin Sensors', serialNumber: 'OS-7734', unit: 'degC', rangeMin: -50, rangeMax: 250, spec: { resolution: 0.01 } },
   { tag: 'TC-9', name: 'Pt100 probe, bath calorimeter', kind: 'temperature', manufacturer: 'Orrin Sensors', serialNumber: 'OS-7791', unit: 'degC', rangeMin: -20, rangeMax: 120, spec: { resolution: 0.001 } },
   { tag: 'LD-3', name: 'Displacement encoder, piston PC-3', kind: 'displacement', manufacturer: 'Tarn Motion', serialNumber: 'TM-1180', unit: 'mm', rangeMin: 0, rangeMax: 200, spec: { resolution: 0.01, percentOfReading: 0.05 } },
+  { tag: 'SV-1', name: 'Syringe volume scale, piston cell', kind: 'volume', manufacturer: 'Tarn Motion', serialNumber: 'TM-2204', unit: 'mL', rangeMin: 0, rangeMax: 500, spec: { resolution: 0.1, percentOfReading: 0.1 } },
+  { tag: 'VB-2', name: 'Gas burette, Lab B', kind: 'volume', manufacturer: 'Harrowgate glass workshop', serialNumber: 'HGW-0317', unit: 'L', rangeMin: 0, rangeMax: 2, spec: { resolution: 0.001, percentOfReading: 0.2 } },
   { tag: 'DV-4', name: 'Bench multimeter, heater voltage', kind: 'voltage', manufacturer: 'Wexford Instruments', serialNumber: 'WI-5520', unit: 'V', rangeMin: 0, rangeMax: 60, spec: { percentOfReading: 0.05, resolution: 0.001 } },
   { tag: 'DA-5', name: 'Bench multimeter, heater current', kind: 'current', manufacturer: 'Wexford Instruments', serialNumber: 'WI-5521', unit: 'A', rangeMin: 0, rangeMax: 10, spec: { percentOfReading: 0.1, resolution: 0.0001 } },
 ] as const;
@@ -50,6 +52,8 @@ export const demoCalibrations: { tag: string; ageDays: number; validDays: number
   { tag: 'TC-7', ageDays: 345, validDays: 365, certificate: 'HIAT-CAL-2150', U: 0.05, k: 2 },
   { tag: 'TC-9', ageDays: 60, validDays: 365, certificate: 'HIAT-CAL-2310', U: 0.01, k: 2 },
   { tag: 'LD-3', ageDays: 400, validDays: 365, certificate: 'HIAT-CAL-2012', U: 0.02, k: 2 },
+  { tag: 'SV-1', ageDays: 90, validDays: 365, certificate: 'HIAT-CAL-2288', U: 0.2, k: 2 },
+  { tag: 'VB-2', ageDays: 150, validDays: 365, certificate: 'HIAT-CAL-2241', U: 0.002, k: 2 },
   { tag: 'DV-4', ageDays: 30, validDays: 365, certificate: 'HIAT-CAL-2330', U: 0.004, k: 2 },
   { tag: 'DA-5', ageDays: 30, validDays: 365, certificate: 'HIAT-CAL-2331', U: 0.0008, k: 2 },
 ];

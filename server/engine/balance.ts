@@ -3,11 +3,12 @@ import { analyseCalorimetry, electricalHeat, type HeatLeakFit } from './calorime
 import { sha256Canonical } from './canonical';
 import type { EnergyEquivalent } from './energy-equivalent';
 import { RISE_METHODS, type RiseMethod, type TemperatureRise } from './temperature-rise';
-import { dataQualityFlags, type Flag } from './flags';
+import { dataQualityFlags, FLAG_DEFAULTS, type Flag, type FlagSettings } from './flags';
+import { heaterFindings } from './heater-check';
 import { checkRange, equipartitionModel, gamma, speciesModel, type HeatCapacityModel } from './gases';
 import { breakHints, indeterminateHints, type Hint, type Outcome } from './hints';
 import { compareWithLinear, monteCarlo, type Histogram } from './monte-carlo';
-import { claimedIndex, polytropicFit } from './polytropic';
+import { claimedIndex, indexOffsetSensitivity, polytropicFit } from './polytropic';
 import { propagate } from './propagation';
 import { validateRunDocument, type RunDocument, type ValidationError } from './run-document';
 import { criticalConstants } from './real-gas';
@@ -17,7 +18,7 @@ import { ENGINE_VERSION } from './version';
 import { verdictOf, type Verdict } from './verdict';
 import { modelWork } from './work';
 
-export interface BalanceSettings {
+export interface BalanceSettings extends Partial<FlagSettings> {
   /** Coverage factor k for expanded uncertainties (default 2). */
   coverageFactor?: number;
   /** Monte Carlo draws (default 10⁵); 0 skips the Monte Carlo check. */
@@ -88,7 +89,8 @@ export class EngineInputError extends Error {
   }
 }
 
-const DEFAULTS = { coverageFactor: 2, draws: 100_000, indeterminateFraction: 0.2, riseMethod: 'regnault-pfaundler' as RiseMethod };
+const DEFAULTS = { coverageFactor: 2, draws: 100_000, indeterminateFraction: 0.2, riseMethod: 'regnault-pfaundler' as RiseMethod, ...FLAG_DEFAULTS };
+const FLAG_KEYS = Object.keys(FLAG_DEFAULTS) as (keyof FlagSettings)[];
 /** Upper bound on Monte Carlo draws per request (memory: 8 bytes per draw). */
 export const MAX_DRAWS = 10_000_000;
 
@@ -144,6 +146,7 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
     seed: settings.seed ?? parseInt(documentHash.slice(0, 8), 16),
     indeterminateFraction: settings.indeterminateFraction ?? DEFAULTS.indeterminateFraction,
     riseMethod: settings.riseMethod ?? DEFAULTS.riseMethod,
+    ...Object.fromEntries(FLAG_KEYS.map((key) => [key, settings[key] ?? DEFAULTS[key]])) as unknown as FlagSettings,
   };
   const k = effective.coverageFactor;
   const c = core(doc, k, effective.indeterminateFraction);
@@ -171,8 +174,17 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
   const fit = hasPath ? polytropicFit(series.P!.si, series.V!.si) : null;
   const claimed = claimedIndex(doc.process.claimed, g, doc.process.index);
 
+  // The index's uncertainty from offsets common to all pressure or all volume readings (they bend ln P on ln V).
+  let uSystematic = 0;
+  if (fit) {
+    const d = indexOffsetSensitivity(series.P!.si, series.V!.si);
+    const P = series.P!, V = series.V!;
+    const uP = Math.hypot(P.factor * P.comps.fullScaleOffset, P.factor * P.comps.calibrationOffset, series.gauge ? (series.ambientPressure?.u ?? 0) : 0);
+    const uV = Math.hypot(V.factor * V.comps.fullScaleOffset, V.factor * V.comps.calibrationOffset, series.volumeOffsetU);
+    if (d) uSystematic = Math.hypot(d.dP * uP, d.dV * uV);
+  }
   const calorimetry = analyseCalorimetry(doc, series, doc.purpose === 'standardization' ? electricalHeat(series, model) : null, { method: effective.riseMethod, k });
-  const flags = [...dataQualityFlags({ doc, series, electricalHeat: nom.Qel, work: W, fit, claimedIndex: claimed }), ...calorimetry.flags];
+  const flags = [...dataQualityFlags({ doc, series, electricalHeat: nom.Qel, work: W, fit: fit ? { ...fit, uSystematic } : null, claimedIndex: claimed, settings: effective }), ...calorimetry.flags];
 
   const u2 = ur * ur;
   const budget: BudgetEntry[] = model.inputs.map((q, j) => ({
@@ -217,8 +229,13 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
       leakIntegral: series.ambientTemperature ? leakIntegral(series) : null,
       temperatureFactor: series.T.factor,
     });
+    // A cause strong enough to close the balance is named among the flags too, not only below the budget.
+    for (const h of hints) flags.push({ code: 'LIKELY_CAUSE', reading: null, message: `Likely cause of the break (${h.code}): ${h.message}` });
   } else if (outcome.verdict === 'indeterminate') {
     hints = indeterminateHints(budget, ur, k);
+  }
+  for (const f of heaterFindings(series, { coverage: effective.flagCoverage, resistanceTolerance: effective.heaterResistanceTolerance })) {
+    hints.push({ code: 'HEATER_CHANNEL_SUSPECT', message: f.hint });
   }
 
   const amountSource = series.amount.kind === 'none' ? 'calorimeter (C·ΔT)' : series.amount.kind === 'initialState' ? 'initial state n = P1·V1/(Z·R·T1)' : series.amount.kind === 'mass' ? 'mass n = m/M' : 'given';
@@ -286,5 +303,9 @@ export function validateSettings(settings: BalanceSettings): ValidationError[] {
   if (seed !== undefined && !(typeof seed === 'string' || Number.isFinite(seed))) errors.push({ path: 'settings.seed', message: 'must be a number or a string' });
   if (f !== undefined && !(typeof f === 'number' && f > 0 && Number.isFinite(f))) errors.push({ path: 'settings.indeterminateFraction', message: 'must be a number greater than 0' });
   if (settings.riseMethod !== undefined && !RISE_METHODS.includes(settings.riseMethod)) errors.push({ path: 'settings.riseMethod', message: `must be one of ${RISE_METHODS.join(', ')}` });
+  for (const key of FLAG_KEYS) {
+    const v = settings[key];
+    if (v !== undefined && !(typeof v === 'number' && v >= 0 && Number.isFinite(v))) errors.push({ path: `settings.${key}`, message: 'must be a number of at least 0' });
+  }
   return errors;
 }

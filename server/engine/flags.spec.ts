@@ -109,12 +109,13 @@ describe('ABOVE_RATED_PRESSURE', () => {
   });
 });
 
-describe('ISOTHERMAL_DRIFT (span above 1 % of the mean temperature)', () => {
-  it('raises when an isothermal run warms by 6 K', () => {
+describe('ISOTHERMAL_DRIFT (span of block means above 1 % of the mean temperature plus 3 u of the span)', () => {
+  it('raises when an isothermal run warms by 6 K, near its end', () => {
     const doc = load('isothermal.json');
     doc.readings.temperature.values = doc.readings.temperature.values.map((t: number, i: number) => t + (6 * i) / 200);
     const f = flagsOf(doc, 'ISOTHERMAL_DRIFT');
-    expect(f.map((x) => x.reading)).toEqual([201]);
+    expect(f).toHaveLength(1);
+    expect(f[0].reading).toBeGreaterThanOrEqual(191); // the last block of 10 readings starts at reading 191
   });
   it('does not raise for a 1 K drift', () => {
     const doc = load('isothermal.json');
@@ -130,8 +131,10 @@ describe('ISOCHORIC_VOLUME_CHANGE (span above 0.5 % of the mean volume)', () => 
     doc.readings.volume = { unit: 'L', values: Array.from({ length: N }, (_, i) => 1.5 + ((end - 1.5) * i) / (N - 1)) };
     return doc;
   };
-  it('raises when the logged volume grows from 1.5 L to 1.6 L', () => {
-    expect(flagsOf(withVolume(1.6), 'ISOCHORIC_VOLUME_CHANGE').map((f) => f.reading)).toEqual([121]);
+  it('raises when the logged volume grows from 1.5 L to 1.6 L, near its end', () => {
+    const f = flagsOf(withVolume(1.6), 'ISOCHORIC_VOLUME_CHANGE');
+    expect(f).toHaveLength(1);
+    expect(f[0].reading).toBeGreaterThanOrEqual(115); // the last block of 6 readings starts at reading 115
   });
   it('does not raise for 1.5 L to 1.503 L', () => {
     expect(codes(withVolume(1.503))).not.toContain('ISOCHORIC_VOLUME_CHANGE');

@@ -1,5 +1,6 @@
 // Data-quality flags: what is wrong, at which reading (1-based, as people count), and why it matters.
 import { quickselect } from 'simple-statistics';
+import { heaterFindings } from './heater-check';
 import type { RunDocument } from './run-document';
 import type { ChannelSeries, RunSeries } from './series';
 import { toSi } from './units';
@@ -20,25 +21,54 @@ export type FlagCode =
   | 'PERIODS_NOT_FOUND'
   | 'RISE_METHODS_DISAGREE'
   | 'HEAT_LEAK_DISAGREES'
-  | 'STANDARDIZATION_DUE';
+  | 'STANDARDIZATION_DUE'
+
+  | 'HEATER_CURRENT_WITHOUT_VOLTAGE'
+  | 'HEATER_VOLTAGE_WITHOUT_CURRENT'
+  | 'HEATER_RESISTANCE_UNSTEADY'
+  | 'UNCERTAINTY_NOT_STATED'
+  | 'LIKELY_CAUSE';
 
 export interface Flag {
   code: FlagCode;
   /** 1-based reading number, or null when the flag concerns the whole run or an instrument. */
   reading: number | null;
   message: string;
+  /** The run cannot be submitted while this stands (a channel whose uncertainty is not stated). */
+  blocking?: boolean;
 }
 
 /** A gap is a time step longer than this many times the median step. */
 export const GAP_FACTOR = 5;
-/** An isothermal run drifts when max T − min T exceeds this fraction of the mean absolute temperature. */
-export const ISOTHERMAL_DRIFT_FRACTION = 0.01;
-/** An isochoric run changes volume when max V − min V exceeds this fraction of the mean volume. */
-export const ISOCHORIC_VOLUME_FRACTION = 0.005;
-/** Heater energy above this fraction of |W| contradicts an adiabatic claim. */
-export const ADIABATIC_HEAT_FRACTION = 0.01;
-/** A fitted index is far when it differs from the claimed one by more than 3 standard errors and this much. */
-export const INDEX_ABS_TOLERANCE = 0.05;
+/**
+ * The lab's flag thresholds (lab settings; defaults in FLAG_DEFAULTS). Each claim flag tests a drift or an index
+ * against its propagated uncertainty times `flagCoverage` and, on top, a tolerance the claim allows.
+ */
+export interface FlagSettings {
+  /** Standard uncertainties a drift, index or heater spread must exceed before it is flagged (default 3). */
+  flagCoverage: number;
+  /** An isothermal run may drift this fraction of its mean absolute temperature (default 0.01). */
+  isothermalDriftFraction: number;
+  /** An isochoric run's volume may change this fraction of its mean (default 0.005). */
+  isochoricVolumeFraction: number;
+  /** Heater energy above this fraction of |W| contradicts an adiabatic claim (default 0.01). */
+  adiabaticHeatFraction: number;
+  /** A fitted index may differ from the claimed one by this much in any case (default 0.05). */
+  indexTolerance: number;
+  /** A heater's resistance may drift this fraction with its own temperature (default 0.02). */
+  heaterResistanceTolerance: number;
+}
+
+export const FLAG_DEFAULTS: Readonly<FlagSettings> = {
+  flagCoverage: 3,
+  isothermalDriftFraction: 0.01,
+  isochoricVolumeFraction: 0.005,
+  adiabaticHeatFraction: 0.01,
+  indexTolerance: 0.05,
+  heaterResistanceTolerance: 0.02,
+};
+/** Most blocks a drift is judged on: block means average the per-reading noise down by √(readings per block). */
+const DRIFT_BLOCKS = 20;
 /** Per code, list this many readings, then one summary flag. */
 const MAX_PER_CODE = 10;
 
@@ -47,17 +77,19 @@ export interface FlagContext {
   series: RunSeries;
   electricalHeat: number;
   work: number;
-  fit: { index: number; uIndex: number } | null;
+  /** uIndex: the fit's standard error; uSystematic: the index's uncertainty from pressure and volume offsets. */
+  fit: { index: number; uIndex: number; uSystematic: number } | null;
   claimedIndex: number | null;
+  settings: FlagSettings;
 }
 
 class FlagList {
   readonly flags: Flag[] = [];
   private counts = new Map<FlagCode, number>();
-  add(code: FlagCode, reading: number | null, message: string): void {
+  add(code: FlagCode, reading: number | null, message: string, blocking = false): void {
     const n = (this.counts.get(code) ?? 0) + 1;
     this.counts.set(code, n);
-    if (n <= MAX_PER_CODE) this.flags.push({ code, reading, message });
+    if (n <= MAX_PER_CODE) this.flags.push(blocking ? { code, reading, message, blocking } : { code, reading, message });
   }
   summarise(): void {
     for (const [code, n] of this.counts) {
@@ -90,6 +122,27 @@ function spanOf(a: Float64Array): { min: number; max: number; iMin: number; iMax
     sum += a[i];
   }
   return { min, max, iMin, iMax, mean: sum / a.length };
+}
+
+/**
+ * The span of block means of a channel (up to DRIFT_BLOCKS consecutive blocks) and the standard uncertainty of
+ * the difference of two block means: √2·u_random/√m (offsets and gains common to the run cancel in a difference).
+ */
+function blockSpan(ch: ChannelSeries): { span: number; u: number; iLo: number; iHi: number; mean: number; m: number } {
+  const n = ch.si.length;
+  const m = Math.max(1, Math.floor(n / DRIFT_BLOCKS));
+  let lo = Infinity, hi = -Infinity, iLo = 0, iHi = 0, sum = 0, total = 0;
+  for (let start = 0; start + m <= n; start += m) {
+    let s = 0;
+    for (let i = start; i < start + m; i++) s += ch.si[i];
+    const b = s / m;
+    if (b < lo) { lo = b; iLo = start; }
+    if (b > hi) { hi = b; iHi = start; }
+  }
+  for (let i = 0; i < n; i++) total += ch.si[i];
+  sum = total / n;
+  const u = (Math.SQRT2 * ch.comps.random * ch.factor) / Math.sqrt(m);
+  return { span: hi - lo, u, iLo, iHi, mean: sum, m };
 }
 
 function dayOf(iso: string): number {
@@ -157,34 +210,44 @@ export function dataQualityFlags(ctx: FlagContext): Flag[] {
   }
 
   const claimed = doc.process.claimed;
+  const st = ctx.settings;
+  const k = st.flagCoverage;
   if (claimed === 'isothermal') {
-    const s = spanOf(series.T.si);
-    if (s.max - s.min > ISOTHERMAL_DRIFT_FRACTION * s.mean) {
-      const worst = Math.abs(series.T.si[s.iMax] - series.T.si[0]) > Math.abs(series.T.si[s.iMin] - series.T.si[0]) ? s.iMax : s.iMin;
-      out.add('ISOTHERMAL_DRIFT', worst + 1, `The run is claimed isothermal but its temperature spans ${fmt(s.max - s.min)} K (more than ${ISOTHERMAL_DRIFT_FRACTION * 100} % of ${fmt(s.mean)} K), furthest from the start at reading ${worst + 1}.`);
+    const b = blockSpan(series.T);
+    const allowed = st.isothermalDriftFraction * Math.abs(b.mean) + k * b.u;
+    if (b.span > allowed) {
+      const worst = Math.abs(series.T.si[b.iHi] - series.T.si[0]) > Math.abs(series.T.si[b.iLo] - series.T.si[0]) ? b.iHi : b.iLo;
+      out.add('ISOTHERMAL_DRIFT', worst + 1, `The run is claimed isothermal but its temperature (means of ${b.m} reading(s)) spans ${fmt(b.span)} K, more than the ${st.isothermalDriftFraction * 100} % of ${fmt(b.mean)} K the claim allows plus ${k} standard uncertainties of the span (${fmt(k * b.u)} K); furthest from the start near reading ${worst + 1}.`);
     }
   }
   if (claimed === 'isochoric' && series.V) {
-    const s = spanOf(series.V.si);
-    if (s.max - s.min > ISOCHORIC_VOLUME_FRACTION * s.mean) {
-      out.add('ISOCHORIC_VOLUME_CHANGE', s.iMax + 1, `The run is claimed isochoric but its volume spans ${fmt(s.max - s.min)} m³ (more than ${ISOCHORIC_VOLUME_FRACTION * 100} % of ${fmt(s.mean)} m³), largest at reading ${s.iMax + 1}.`);
+    const b = blockSpan(series.V);
+    const allowed = st.isochoricVolumeFraction * Math.abs(b.mean) + k * b.u;
+    if (b.span > allowed) {
+      out.add('ISOCHORIC_VOLUME_CHANGE', b.iHi + 1, `The run is claimed isochoric but its volume (means of ${b.m} reading(s)) spans ${fmt(b.span)} m³, more than the ${st.isochoricVolumeFraction * 100} % of ${fmt(b.mean)} m³ the claim allows plus ${k} standard uncertainties of the span (${fmt(k * b.u)} m³); largest near reading ${b.iHi + 1}.`);
     }
   }
-  if (claimed === 'adiabatic' && ctx.electricalHeat !== 0 && Math.abs(ctx.electricalHeat) > ADIABATIC_HEAT_FRACTION * Math.abs(ctx.work)) {
+  if (claimed === 'adiabatic' && ctx.electricalHeat !== 0 && Math.abs(ctx.electricalHeat) > st.adiabaticHeatFraction * Math.abs(ctx.work)) {
     let iMax = 0;
     let pMax = -Infinity;
     for (let i = 0; i < N; i++) {
       const p = series.Pw ? series.Pw.si[i] : (series.U?.si[i] ?? 0) * (series.I?.si[i] ?? 0);
       if (p > pMax) { pMax = p; iMax = i; }
     }
-    out.add('ADIABATIC_HEATER_POWER', iMax + 1, `The run is claimed adiabatic but the heater delivered ${fmt(ctx.electricalHeat)} J (peak ${fmt(pMax)} W at reading ${iMax + 1}), more than ${ADIABATIC_HEAT_FRACTION * 100} % of |W|.`);
+    out.add('ADIABATIC_HEATER_POWER', iMax + 1, `The run is claimed adiabatic but the heater delivered ${fmt(ctx.electricalHeat)} J (peak ${fmt(pMax)} W at reading ${iMax + 1}), more than ${st.adiabaticHeatFraction * 100} % of |W|.`);
   }
   if (ctx.fit && ctx.claimedIndex !== null && Number.isFinite(ctx.claimedIndex)) {
     const diff = Math.abs(ctx.fit.index - ctx.claimedIndex);
-    if (diff > Math.max(3 * ctx.fit.uIndex, INDEX_ABS_TOLERANCE)) {
-      out.add('INDEX_FAR_FROM_CLAIM', null, `The fitted polytropic index ${fmt(ctx.fit.index)} ± ${fmt(ctx.fit.uIndex)} is far from ${fmt(ctx.claimedIndex)}, the index a ${claimed} process implies (difference above 3 standard errors and ${INDEX_ABS_TOLERANCE}).`);
+    const u = Math.hypot(ctx.fit.uIndex, ctx.fit.uSystematic);
+    if (diff > Math.max(k * u, st.indexTolerance)) {
+      out.add('INDEX_FAR_FROM_CLAIM', null, `The fitted polytropic index ${fmt(ctx.fit.index)} ± ${fmt(u)} (fit and pressure/volume offsets) is far from ${fmt(ctx.claimedIndex)}, the index a ${claimed} process implies: the difference ${fmt(diff)} exceeds ${k} standard uncertainties and ${st.indexTolerance}.`);
     }
   }
+  for (const ch of channels) {
+    if (ch.instrument || ch.label === 'vessel volume') continue;
+    out.add('UNCERTAINTY_NOT_STATED', null, `The ${ch.key} channel names no instrument, so its readings add no uncertainty to the budget and the verdict overstates the confidence; choose the instrument that read it before the run is submitted.`, true);
+  }
+  for (const f of heaterFindings(series, { coverage: k, resistanceTolerance: st.heaterResistanceTolerance })) out.add(f.code, f.reading, f.message);
   out.summarise();
   return out.flags;
 }

@@ -11,7 +11,8 @@ export type HintCode =
   | 'CURRENT_UNIT'
   | 'HEATER_CHANNEL_MISSING'
   | 'FORGOTTEN_HEAT_LEAK'
-  | 'DOMINANT_SOURCE';
+  | 'DOMINANT_SOURCE'
+  | 'HEATER_CHANNEL_SUSPECT';
 
 export interface Hint {
   code: HintCode;

@@ -96,3 +96,29 @@ export function claimedIndex(process: string, gamma: number | undefined, index: 
       return null;
   }
 }
+
+/**
+ * ∂n/∂b for an offset b common to every pressure reading and to every volume reading (Pa⁻¹, m⁻³), from the
+ * least-squares slope b = Sxy/Sxx of y = ln P on x = ln V: an offset moves y_i by b/P_i (or x_i by b/V_i), and
+ * d(slope) = (dSxy − slope·dSxx)/Sxx. Gains move every ln P (ln V) alike and leave the slope unchanged.
+ */
+export function indexOffsetSensitivity(P: ArrayLike64, V: ArrayLike64): { dP: number; dV: number } | null {
+  const N = P.length;
+  if (N < 3) return null;
+  let sx = 0, sy = 0, sp = 0, sv = 0;
+  for (let i = 0; i < N; i++) {
+    if (!(P[i] > 0 && V[i] > 0)) return null;
+    sx += Math.log(V[i]); sy += Math.log(P[i]); sp += 1 / P[i]; sv += 1 / V[i];
+  }
+  const xb = sx / N, yb = sy / N, pb = sp / N, vb = sv / N;
+  let sxx = 0, sxy = 0, dSxyP = 0, dSxyV = 0, dSxxV = 0;
+  for (let i = 0; i < N; i++) {
+    const dx = Math.log(V[i]) - xb, dy = Math.log(P[i]) - yb;
+    const ep = 1 / P[i] - pb, ev = 1 / V[i] - vb;
+    sxx += dx * dx; sxy += dx * dy;
+    dSxyP += dx * ep; dSxyV += ev * dy; dSxxV += 2 * dx * ev;
+  }
+  if (!(sxx > 0)) return null;
+  const slope = sxy / sxx;
+  return { dP: -dSxyP / sxx, dV: -(dSxyV - slope * dSxxV) / sxx }; // n = −slope
+}

@@ -5,7 +5,7 @@ import { recordAudit } from '../audit/audit-service';
 import type { Config } from '../config';
 import { badRequest, forbidden } from '../core/problem';
 import type { SessionPerson } from '../core/session';
-import { sha256Canonical, validateRunDocument } from '../engine';
+import { sha256Canonical, validateRunDocument, type RunDocument } from '../engine';
 import { buildSeries } from '../engine/series';
 import type { JobQueue } from '../jobs/job-queue';
 import { projectAddresses, queueMail } from '../mail/outbox';
@@ -208,6 +208,11 @@ export class RunsService {
         throw badRequest(`Run ${before.code} is not complete enough to check: ${valid.errors.length} problem(s). Nothing was changed.`,
           valid.errors.map((e) => ({ field: e.path, message: e.message })));
       }
+      const unstated = channelsWithoutInstrument(valid.doc);
+      if (unstated.length > 0) {
+        throw badRequest(`Run ${before.code} has ${unstated.length} channel(s) with no instrument, whose readings would add no uncertainty: choose the instrument that read each. Nothing was changed.`,
+          unstated.map((name) => ({ field: `readings.${name}.instrument`, message: `the ${name} channel names no instrument; choose the one that read it so its uncertainty enters the budget` })));
+      }
       const [after] = await tx.update(runs)
         .set({ state: 'submitted', version: before.version + 1, submittedAt: sql`now()`, updatedAt: sql`now()`, verdict: null, returnReason: null })
         .where(eq(runs.id, id)).returning();
@@ -251,4 +256,11 @@ export class RunsService {
       .where(and(eq(balanceResults.runId, id), eq(balanceResults.current, true)));
     return { run, row };
   }
+}
+
+/** The reading channels (time aside) that name no instrument: they would enter the budget with no uncertainty. */
+export function channelsWithoutInstrument(doc: RunDocument): string[] {
+  return Object.entries(doc.readings)
+    .filter(([name, ch]) => name !== 'time' && ch && !(ch as { instrument?: string }).instrument)
+    .map(([name]) => name);
 }

@@ -176,4 +176,16 @@ describe('review rules', () => {
     const [{ n }] = await h.handle.db.select({ n: count() }).from(balanceResults).where(eq(balanceResults.runId, created.body.id));
     expect(n).toBe(0);
   });
+  it('refuses to submit a run whose volume channel names no instrument, naming the channel (issue 12)', async () => {
+    const doc = loadFixture('isobaric');
+    delete (doc.readings.volume as { instrument?: string }).instrument;
+    const bodies = runBodies(doc, projectId);
+    const created = await tech.post('/api/runs', bodies.create);
+    const put = await tech.put(`/api/runs/${created.body.id}/readings`, { version: created.body.version, ...bodies.readings });
+    const res = await tech.post(`/api/runs/${created.body.id}/submit`, { version: put.body.version });
+    expect(res.status).toBe(400);
+    expect(res.body.errors).toEqual([{ field: 'readings.volume.instrument', message: expect.stringMatching(/volume channel names no instrument/) }]);
+    const [row] = await h.handle.db.select().from(runs).where(eq(runs.id, created.body.id));
+    expect(row.state).toBe('draft');
+  });
 });
