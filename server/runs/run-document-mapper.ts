@@ -173,6 +173,14 @@ export function storageToDocument(ctx: DocumentContext): RunDocument {
     }
     readingsOut[name] = out;
   }
+  const ambient = { ...(setup.ambient ?? {}) };
+  const baro = ambient.pressure;
+  if (baro) {
+    const { instrumentId, ...quantity } = baro;
+    const registered = instrumentId !== undefined ? ctx.register.get(instrumentId) : undefined;
+    if (registered) instrumentsOut.push(registerInstrument(registered, baro.unit, 'pressure'));
+    ambient.pressure = registered ? { ...quantity, instrument: registered.tag } : quantity;
+  }
   // Two channels may share one instrument: describe it once.
   const uniqueInstruments = [...new Map(instrumentsOut.map((i) => [i.id, i])).values()];
   const gas = setup.gas ?? (ctx.gasCode ? { model: 'species' as const, species: ctx.gasCode as never } : { model: 'calorimeter' as const });
@@ -187,7 +195,7 @@ export function storageToDocument(ctx: DocumentContext): RunDocument {
     process: { claimed: ctx.run.process, ...(setup.processIndex !== undefined ? { index: setup.processIndex } : {}) },
     gas,
     ...(setup.amount ? { amount: setup.amount } : {}),
-    ambient: setup.ambient ?? {},
+    ambient,
     apparatus: apparatusOf(ctx.apparatus, setup.apparatus, setup.apparatusSource, ctx.standardization),
     instruments: uniqueInstruments,
     readings: readingsOut as unknown as Readings,
@@ -203,8 +211,8 @@ const isPlainObject = (v: unknown): v is Record<string, unknown> => typeof v ===
 export function parseReadingsInput(body: { time?: unknown; channels?: unknown }): ReadingsInput {
   const errors: FieldError[] = [];
   const time = body.time;
-  if (!isPlainObject(time) || !['s', 'min', 'h', 'iso'].includes(time['unit'] as string) || !Array.isArray(time['values'])) {
-    errors.push({ field: 'time', message: 'time must be { unit: "s" | "min" | "h" | "iso", values: [...] }' });
+  if (!isPlainObject(time) || !['ms', 's', 'min', 'h', 'iso'].includes(time['unit'] as string) || !Array.isArray(time['values'])) {
+    errors.push({ field: 'time', message: 'time must be { unit: "ms" | "s" | "min" | "h" | "iso", values: [...] }' });
   }
   const channels = body.channels;
   if (!isPlainObject(channels)) {

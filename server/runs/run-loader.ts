@@ -30,6 +30,7 @@ export async function instrumentsOnDay(db: DbOrTx, ids: number[], day: string): 
 export async function loadRunDocument(db: DbOrTx, run: RunRow, labName: string): Promise<RunDocument> {
   const setup = (run.setup ?? {}) as RunSetup;
   const ids = Object.values(setup.channels ?? {}).flatMap((c) => (c?.instrumentId !== undefined ? [c.instrumentId] : []));
+  if (setup.ambient?.pressure?.instrumentId !== undefined) ids.push(setup.ambient.pressure.instrumentId);
   const [rows, register, [gas], [app], [author]] = await Promise.all([
     loadReadings(db, run.id),
     instrumentsOnDay(db, ids, run.runDate),

@@ -24,7 +24,8 @@ export interface RunSetup {
   gas?: GasSpec;
   amount?: AmountSpec;
   processIndex?: number;
-  ambient?: { pressure?: Quantity; temperature?: Quantity };
+  /** The barometric pressure may name the register barometer that read it (its specification enters the budget). */
+  ambient?: { pressure?: Quantity & { instrumentId?: number; instrument?: string }; temperature?: Quantity };
   /**
    * Apparatus values of this run; they take precedence over the apparatus register (e.g. a dead volume
    * measured for this run, or the constants of an imported run document).

@@ -2,7 +2,8 @@ import type { RunState } from './runs.models';
 
 // Run entry at the bench: create, edit, readings, submit (and the shapes the run page shares).
 /** Processes a run can claim. */
-export type RunProcess = 'isobaric' | 'isochoric' | 'isothermal' | 'adiabatic' | 'polytropic' | 'calorimetric';
+/** 'free-form': a path that follows no named process (loops, free paths); no model work and no claim flags. */
+export type RunProcess = 'isobaric' | 'isochoric' | 'isothermal' | 'adiabatic' | 'polytropic' | 'calorimetric' | 'free-form';
 
 export const RUN_PROCESSES: readonly RunProcess[] = [
   'isobaric',
@@ -11,6 +12,7 @@ export const RUN_PROCESSES: readonly RunProcess[] = [
   'adiabatic',
   'polytropic',
   'calorimetric',
+  'free-form',
 ];
 
 /** Reading channels besides time, in grid order. */
@@ -59,9 +61,10 @@ export interface DraftSetup {
   amount?: AmountSetup;
   /** Polytropic index n. */
   processIndex?: number;
-  ambient?: { pressure?: EnteredQuantity; temperature?: EnteredQuantity };
+  /** pressure.instrumentId: the register barometer that read it. */
+  ambient?: { pressure?: EnteredQuantity & { instrumentId?: number }; temperature?: EnteredQuantity };
   apparatus?: Record<string, unknown>;
-  time?: { unit: 's' | 'min' | 'h' | 'iso'; origin?: string };
+  time?: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; origin?: string };
   channels?: Partial<Record<ReadingChannel, ChannelEntry>>;
   [key: string]: unknown;
 }
@@ -142,7 +145,7 @@ export interface UpdateRunBody {
 /** Body of `PUT /api/runs/:id/readings`: values in each channel's own unit; null for an empty cell. */
 export interface ReadingsBody {
   version: number;
-  time: { unit: 's' | 'min' | 'h'; values: number[] };
+  time: { unit: 'ms' | 's' | 'min' | 'h'; values: number[] };
   channels: Partial<Record<ReadingChannel, ChannelEntry & { values: (number | null)[] }>>;
 }
 
@@ -157,7 +160,8 @@ export interface RunVersion {
 export interface RunSetup {
   gas?: { model: 'species' | 'equipartition' | 'calorimeter' | string; species?: string; f?: number };
   channels?: Record<string, { unit: string; instrument?: string; reference?: string }>;
-  ambient?: { pressure?: EnteredQuantity; temperature?: EnteredQuantity };
+  /** pressure.instrumentId: the register barometer that read it. */
+  ambient?: { pressure?: EnteredQuantity & { instrumentId?: number }; temperature?: EnteredQuantity };
   apparatus?: { name?: string; ratedPressure?: EnteredQuantity; [key: string]: unknown };
   [key: string]: unknown;
 }

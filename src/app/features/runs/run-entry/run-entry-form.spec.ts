@@ -183,4 +183,13 @@ describe('run entry form', () => {
       '1.5', '152.5', '21.5', '',
     ]);
   });
+
+  it('sets what the run document can: a free-form claim, time in ms, the barometer in hPa from the register (issue 12)', () => {
+    const form = filledForm();
+    form.patchValue({ process: 'free-form', timeUnit: 'ms', ambientPressure: 1013.2, ambientPressureUnit: 'hPa', ambientPressureInstrumentId: 9 });
+    const body = createBody(form, gases)!;
+    expect(body.process).toBe('free-form');
+    expect(body.setup!.ambient!.pressure).toEqual({ value: 1013.2, unit: 'hPa', instrumentId: 9 });
+    expect(readingsBody(1, form.getRawValue(), new ReadingsSheet(), body.setup).time.unit).toBe('ms');
+  });
 });

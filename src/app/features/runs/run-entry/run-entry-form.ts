@@ -16,7 +16,7 @@ import { CHANNEL_KINDS, DEFAULT_UNITS, displayFromSi } from './unit-table';
 
 export type GasModel = 'species' | 'equipartition' | 'calorimeter';
 export type AmountFrom = 'none' | 'moles' | 'mass' | 'initialState';
-export type TimeUnit = 's' | 'min' | 'h';
+export type TimeUnit = 'ms' | 's' | 'min' | 'h';
 
 /** Headings of the channels, as the grid and the form name them. */
 export const CHANNEL_LABELS: Readonly<Record<ReadingChannel, string>> = {
@@ -71,6 +71,8 @@ export function createRunForm(today: string) {
       ambientPressure: optionalNumber(),
       ambientPressureUnit: new FormControl('kPa', { nonNullable: true }),
       ambientPressureU: optionalNumber(),
+      /** The register barometer that read the ambient pressure: its specification enters the budget. */
+      ambientPressureInstrumentId: new FormControl<number | null>(null),
       ambientTemperature: optionalNumber(),
       ambientTemperatureUnit: new FormControl('degC', { nonNullable: true }),
       ambientTemperatureU: optionalNumber(),
@@ -192,7 +194,10 @@ export function setupOf(v: RunFormValue, gases: readonly Gas[], base: DraftSetup
   }
   const ambient: NonNullable<DraftSetup['ambient']> = {};
   if (v.ambientPressure !== null) {
-    ambient.pressure = { value: v.ambientPressure, unit: v.ambientPressureUnit, ...withU(v.ambientPressureU) };
+    ambient.pressure = {
+      value: v.ambientPressure, unit: v.ambientPressureUnit, ...withU(v.ambientPressureU),
+      ...(v.ambientPressureInstrumentId !== null ? { instrumentId: v.ambientPressureInstrumentId } : {}),
+    };
   }
   if (v.ambientTemperature !== null) {
     ambient.temperature = { value: v.ambientTemperature, unit: v.ambientTemperatureUnit, ...withU(v.ambientTemperatureU) };
@@ -261,6 +266,7 @@ export function loadDraft(form: RunForm, draft: RunDraft, gases: readonly Gas[])
     ambientPressure: setup.ambient?.pressure?.value ?? null,
     ambientPressureUnit: setup.ambient?.pressure?.unit ?? 'kPa',
     ambientPressureU: setup.ambient?.pressure?.u ?? null,
+    ambientPressureInstrumentId: setup.ambient?.pressure?.instrumentId ?? null,
     ambientTemperature: setup.ambient?.temperature?.value ?? null,
     ambientTemperatureUnit: setup.ambient?.temperature?.unit ?? 'degC',
     ambientTemperatureU: setup.ambient?.temperature?.u ?? null,

@@ -28,6 +28,7 @@ const linear = (factor: number): ToSi => ({ factor, offset: 0 });
 const UNITS: Readonly<Record<UnitKind, Readonly<Record<string, ToSi>>>> = {
   pressure: {
     Pa: linear(1),
+    hPa: linear(1e2),
     kPa: linear(1e3),
     MPa: linear(1e6),
     bar: linear(1e5),
@@ -47,7 +48,7 @@ const UNITS: Readonly<Record<UnitKind, Readonly<Record<string, ToSi>>>> = {
   voltage: { V: linear(1), mV: linear(1e-3) },
   current: { A: linear(1), mA: linear(1e-3) },
   power: { W: linear(1), mW: linear(1e-3) },
-  time: { s: linear(1), min: linear(60), h: linear(3600) },
+  time: { ms: linear(1e-3), s: linear(1), min: linear(60), h: linear(3600) },
   mass: { kg: linear(1), g: linear(1e-3), mg: linear(1e-6) },
 };
 

@@ -1,0 +1,42 @@
+import { checkRunDocument } from '../engine';
+import { loadFixture } from '../testing/fixture-runs';
+import { documentToStorage, storageToDocument, type DocumentContext } from './run-document-mapper';
+
+// Issue 12: the barometer is an instrument of the register; a stored run names it and the document carries it.
+describe('a register barometer in a stored run', () => {
+  it('becomes the document\'s ambient.pressure.instrument, described in the pressure unit typed, with its own budget row', () => {
+    const doc = loadFixture('isobaric'); // gauge pressure: the barometric pressure enters W and n
+    const { setup, rows } = documentToStorage(doc);
+    setup.ambient = { ...setup.ambient, pressure: { value: 1014.2, unit: 'hPa', instrumentId: 7 } };
+    const barometer = {
+      id: 7, tag: 'BA-1', name: 'Barometer, Lab B wall', kind: 'pressure', manufacturer: 'Kestrel Gauges', serialNumber: 'KG-20931',
+      unit: 'mbar', rangeMin: 800, rangeMax: 1100, spec: { percentOfReading: 0.02, resolution: 0.1 },
+      calibration: { expandedUncertainty: 0.3, coverageFactor: 2, calibratedOn: '2025-09-01', dueOn: '2026-09-01' },
+    } as unknown as DocumentContext['register'] extends ReadonlyMap<number, infer V> ? V : never;
+    const ctx = {
+      run: { code: 'R-1', revision: 1, title: 't', runDate: doc.runDate, process: 'isobaric', setup },
+      rows, register: new Map([[7, barometer]]), gasCode: 'N2', apparatus: null, lab: 'lab', operator: 'op',
+    } as unknown as DocumentContext;
+    const out = storageToDocument(ctx);
+    expect(out.ambient.pressure).toEqual({ value: 1014.2, unit: 'hPa', instrument: 'BA-1' });
+    // mbar = hPa (SI prefix hecto), so the register's 0.3 mbar calibration is 0.3 hPa
+    expect(out.instruments.find((i) => i.id === 'BA-1')!.calibration).toEqual({ U: 0.3, k: 2 });
+    const res = checkRunDocument(out, { draws: 0 });
+    if (!res.ok) throw new Error(JSON.stringify(res.errors));
+    const row = res.result.budget.find((b) => b.group === 'BA-1')!;
+    // u² = (0.02 %/√3 × 1014.2)² + (0.3/2)² + (0.1/√12)² hPa² (GUM 4.3.7, 7.2.3, F.2.2.1), in Pa
+    const u = 100 * Math.hypot((0.0002 / Math.sqrt(3)) * 1014.2, 0.15, 0.1 / Math.sqrt(12));
+    expect(row.u).toBeCloseTo(u, 9);
+  });
+});
+
+describe('readings typed in milliseconds (issue 12)', () => {
+  it('are stored in seconds and read back in ms', () => {
+    const doc = loadFixture('isochoric');
+    const ms = { ...doc, readings: { ...doc.readings, time: { unit: 'ms' as const, values: (doc.readings.time.values as number[]).map((t) => t * 1000) } } };
+    const { rows, setup } = documentToStorage(ms);
+    expect(rows[1].time).toBe(1); // 1000 ms = 1 s (SI prefix milli)
+    const ctx = { run: { code: 'R-2', revision: 1, title: 't', runDate: doc.runDate, process: 'isochoric', setup }, rows, register: new Map(), gasCode: 'He', apparatus: null, lab: 'l', operator: 'o' } as unknown as DocumentContext;
+    expect(storageToDocument(ctx).readings.time).toEqual(ms.readings.time);
+  });
+});
