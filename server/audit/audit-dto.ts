@@ -1,5 +1,5 @@
 import { Type } from 'class-transformer';
-import { IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min } from 'class-validator';
+import { IsIn, IsInt, IsOptional, IsString, Matches, Max, MaxLength, Min } from 'class-validator';
 import { IsCalendarDay } from '../core/validators';
 
 export class AuditQuery {
@@ -9,8 +9,13 @@ export class AuditQuery {
   @IsOptional() @Type(() => Number) @IsInt({ message: 'pageSize must be a whole number' }) @Min(1) @Max(500, { message: 'pageSize is at most 500' })
   pageSize = 50;
 
-  @IsOptional() @Type(() => Number) @IsInt({ message: 'run must be a run id' })
-  run?: number;
+  /** A run code (all its revisions), or a run id. */
+  @IsOptional() @IsString() @Matches(/^(\d{1,9}|R-\d{4}-\d{4,6})$/i, { message: 'run must be a run code like R-2026-0007' })
+  run?: string;
+
+  /** `hide` leaves sign-ins, sign-outs and failed sign-ins out. */
+  @IsOptional() @IsIn(['hide', 'show'], { message: 'signIns must be hide or show' })
+  signIns?: 'hide' | 'show';
 
   @IsOptional() @Type(() => Number) @IsInt({ message: 'person must be a person id' })
   person?: number;

@@ -1,15 +1,22 @@
-import { and, count, desc, eq, sql, type SQL } from 'drizzle-orm';
+import { and, count, desc, eq, notInArray, sql, type SQL } from 'drizzle-orm';
 import { Router } from 'express';
 import type { Database } from '../../db/client';
-import { auditEvents, people } from '../../db/schema';
+import { auditEvents, people, runs } from '../../db/schema';
 import { requireRole } from '../core/session';
 import { validateQuery } from '../core/validate-query';
 import { AuditQuery } from './audit-dto';
+import { readableEvents } from './audit-names';
+import { SIGN_IN_ACTIONS } from './audit-readable';
 import { verifyAuditChain } from './audit-service';
 
 export function auditFilters(q: AuditQuery): SQL | undefined {
   const filters: SQL[] = [];
-  if (q.run !== undefined) filters.push(and(eq(auditEvents.entityType, 'run'), eq(auditEvents.entityId, String(q.run)))!);
+  if (q.run !== undefined) {
+    // A code covers every revision of the run; digits alone are a run id.
+    const ids = /^\d+$/.test(q.run) ? sql`(${q.run})` : sql`(SELECT ${runs.id}::text FROM ${runs} WHERE ${runs.code} = ${q.run.toUpperCase()})`;
+    filters.push(and(eq(auditEvents.entityType, 'run'), sql`${auditEvents.entityId} IN ${ids}`)!);
+  }
+  if (q.signIns === 'hide') filters.push(notInArray(auditEvents.action, [...SIGN_IN_ACTIONS]));
   if (q.person !== undefined) filters.push(eq(auditEvents.actorId, q.person));
   if (q.action) filters.push(eq(auditEvents.action, q.action));
   if (q.entityType) filters.push(eq(auditEvents.entityType, q.entityType));
@@ -29,7 +36,7 @@ export function auditRouter(db: Database): Router {
       db.select().from(auditEvents).where(where).orderBy(desc(auditEvents.id)).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
       db.select({ total: count() }).from(auditEvents).where(where),
     ]);
-    res.json({ items, total, page: q.page, pageSize: q.pageSize });
+    res.json({ items: await readableEvents(db, items), total, page: q.page, pageSize: q.pageSize });
   });
 
   /** People who appear in the trail, so readers can filter by name without the admin-only people list. */

@@ -7,6 +7,7 @@ import { checkRunDocument } from '../engine';
 import { projectAddresses, queueMail } from '../mail/outbox';
 import { loadRunDocument } from '../runs/run-loader';
 import { runStandardization } from '../standardizations/standardization-pin';
+import { whySentence } from './why-sentence';
 
 export type CheckOutcome = 'stored' | 'stale' | 'invalid';
 
@@ -48,7 +49,7 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
     });
     if (result.verdict === 'breaks') {
       const investigators = await projectAddresses(tx, locked.projectId, 'investigator');
-      const body = `Run ${locked.code} "${locked.title}" does not close its energy balance: En = ${result.En?.toFixed(2)} (> 1).\nr = ΔU − (Q − W) = ${result.residual.r.toPrecision(4)} J, U(r) = ${result.residual.U.toPrecision(2)} J (k = ${result.residual.k}).\nOpen the run in Qwell to see the flags and hints.`;
+      const body = `Run ${locked.code} "${locked.title}" does not close its energy balance: En = ${result.En?.toFixed(2)} (> 1).\nr = ΔU − (Q − W) = ${result.residual.r.toPrecision(4)} J, U(r) = ${result.residual.U.toPrecision(2)} J (k = ${result.residual.k}).\nWhy: ${whySentence(result)}\nOpen the run in Qwell to see the flags and hints.`;
       await queueMail(tx, [...new Set([...investigators, author.email])].map((to) => ({ to, subject: `Run ${locked.code}: the energy balance breaks`, body })));
     }
     return 'stored';

@@ -1,6 +1,7 @@
 import type { balanceResults } from '../../db/schema';
 import { notFound } from '../core/problem';
 import type { RunRow } from '../runs/run-access';
+import { whySentence, type WhyInput } from './why-sentence';
 
 /** The stored result of a run, saying whether it still describes the run's current version. */
 export function balanceResponse(run: RunRow, row: typeof balanceResults.$inferSelect | undefined) {
@@ -18,5 +19,14 @@ export function balanceResponse(run: RunRow, row: typeof balanceResults.$inferSe
     stale: row.computedAt < run.editedAt,
     computedAt: row.computedAt,
     result: row.result,
+    /** One sentence of why beside a verdict that breaks or is indeterminate; null when it closes. */
+    why: storedWhy(row.result),
   };
+}
+
+/** The why-sentence of a stored result, tolerating results stored before a field existed. */
+export function storedWhy(result: unknown): string | null {
+  const r = result as Partial<WhyInput> | null;
+  if (!r?.verdict || !r.residual) return null;
+  return whySentence({ ...r, budget: r.budget ?? [], hints: r.hints ?? [], indeterminateLimit: r.indeterminateLimit ?? 0 } as WhyInput);
 }

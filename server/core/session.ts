@@ -6,6 +6,7 @@ import { dataVersions, people, type Role } from '../../db/schema';
 import type { Config } from '../config';
 import { FreshBatcher } from './fresh-batcher';
 import { forbidden, unauthorized } from './problem';
+import { roleWithArticle } from './role-labels';
 
 export const SESSION_COOKIE = 'qwell_session';
 // Pinned: a token that names any other algorithm (or "none") is refused by jwtVerify.
@@ -123,7 +124,7 @@ export function requireRole(...allowed: Role[]): RequestHandler {
   return (req, _res, next) => {
     if (!req.person) return next(unauthorized());
     if (!allowed.includes(req.person.role)) {
-      return next(forbidden(`This is for ${allowed.map((r) => roleNames[r]).join(', ')} only; you are signed in as ${req.person.role}.`));
+      return next(forbidden(`This is for ${allowed.map((r) => roleNames[r]).join(', ')} only; you are signed in as ${roleWithArticle(req.person.role)}.`));
     }
     next();
   };

@@ -4,7 +4,7 @@ import { recordAudit, verifyAuditChain } from '../audit/audit-service';
 import type { Config } from '../config';
 import type { SessionPerson } from '../core/session';
 import { writeAuditCsv } from './audit-csv';
-import { eventPages, type AuditExportHeader } from './audit-export-data';
+import { eventPages, withReadable, type AuditExportHeader } from './audit-export-data';
 import { writeAuditPdf } from './audit-pdf';
 import { writeAuditXlsx } from './audit-xlsx';
 import { fileSha256, RowsHasher } from './export-hash';
@@ -48,7 +48,7 @@ export async function buildAuditExport(db: Database, config: Config, person: Ses
       chain, rows: hasher.rows, rowsSha256: hasher.digest(),
     };
     const writer = { xlsx: writeAuditXlsx, csv: writeAuditCsv, pdf: writeAuditPdf }[q.format];
-    await writer(path, head, eventPages(tx, where));
+    await writer(path, head, withReadable(tx, eventPages(tx, where)));
     return head;
   }, { isolationLevel: 'repeatable read', accessMode: 'read only' });
 

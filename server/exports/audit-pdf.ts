@@ -1,3 +1,4 @@
+import { changesText } from '../audit/audit-readable';
 import { headerLines, type AuditExportHeader, type ExportRow } from './audit-export-data';
 import { COLOURS, keyValues, newPdf, pdfText, pdfToFile, stampPages, type Pdf } from './pdf-layout';
 
@@ -7,11 +8,11 @@ export const PDF_JSON_LIMIT = 600;
 const COLUMNS = [
   { title: 'id', width: 36 },
   { title: 'occurred at (UTC)', width: 96 },
-  { title: 'actor', width: 120 },
-  { title: 'action', width: 84 },
-  { title: 'entity', width: 62 },
-  { title: 'reason', width: 130 },
-  { title: 'change (before, after as JSON)', width: 218 },
+  { title: 'who', width: 110 },
+  { title: 'action', width: 94 },
+  { title: 'record', width: 72 },
+  { title: 'reason', width: 120 },
+  { title: 'change, field by field', width: 218 },
 ];
 
 function shortJson(v: unknown): string {
@@ -21,10 +22,18 @@ function shortJson(v: unknown): string {
 }
 
 function cells(r: ExportRow): string[] {
+  const when = r.occurredAt.replace('T', ' ').replace('Z', '');
+  if (r.readable) {
+    // People by name, records by code, the change as the fields that differ (the JSON stays in the .xlsx and CSV).
+    const e = r.readable;
+    const change = changesText(e.changes);
+    const who = e.actorName ? `${e.actorName}${r.actorEmail ? ` <${r.actorEmail}>` : ''}` : r.actorEmail ?? 'Qwell (system)';
+    return [String(r.id), when, who, e.actionLabel, `${e.recordType} ${e.record}`.trim(), r.reason ?? '', change.length > PDF_JSON_LIMIT ? `${change.slice(0, PDF_JSON_LIMIT)} … (whole in the .xlsx and CSV exports)` : change || '-'].map(pdfText);
+  }
   const parts = [r.before === null ? '' : `before ${shortJson(r.before)}`, r.after === null ? '' : `after ${shortJson(r.after)}`].filter(Boolean);
   const change = parts.length ? parts.join('; ') : '-';
   return [
-    String(r.id), r.occurredAt.replace('T', ' ').replace('Z', ''), r.actorEmail ?? '(no signed-in person)', r.action,
+    String(r.id), when, r.actorEmail ?? '(no signed-in person)', r.action,
     `${r.entityType}${r.entityId === null ? '' : ` ${r.entityId}`}`, r.reason ?? '', change,
   ].map(pdfText);
 }

@@ -28,7 +28,7 @@ export async function writeAuditXlsx(path: string, header: AuditExportHeader, pa
   const sheet = workbook.addWorksheet('Audit trail', { views: [{ state: 'frozen', ySplit: headerBlockRows(header) + 2 }] });
   sheet.columns = [
     { width: 9 }, { width: 26 }, { width: 30 }, { width: 22 }, { width: 13 }, { width: 10 }, { width: 36 },
-    { width: 40 }, { width: 40 }, { width: 66 }, { width: 66 }, { width: 9 }, { width: 16 },
+    { width: 40 }, { width: 40 }, { width: 66 }, { width: 66 }, { width: 9 }, { width: 16 }, { width: 80 },
   ];
   for (const [label, value] of headerLines(header)) {
     const row = sheet.addRow([cell(label), cell(value)]);

@@ -13,7 +13,7 @@ export class AuditExportQuery extends AuditQuery {
 /** The filters a person actually set, for the header block and the export's own audit event. */
 export function setFilters(q: AuditQuery): Record<string, string | number> {
   const out: Record<string, string | number> = {};
-  for (const key of ['run', 'person', 'action', 'entityType', 'from', 'to'] as const) {
+  for (const key of ['run', 'person', 'action', 'entityType', 'signIns', 'from', 'to'] as const) {
     const v = q[key];
     if (v !== undefined && v !== '') out[key] = v;
   }

@@ -1,6 +1,7 @@
 import type { SessionPerson } from '../core/session';
 import { drawPvDiagram } from './pv-diagram';
 import { COLOURS, ensureSpace, keyValues, newPdf, pdfText, pdfToFile, sectionTitle, stampPages, table, type Pdf } from './pdf-layout';
+import { storedWhy } from '../balance/balance-response';
 import { formatMeasurement, percent, sig, verdictWords } from './report-format';
 import type { RunReportData } from './run-report-data';
 
@@ -110,6 +111,8 @@ function balance(doc: Pdf, d: RunReportData): void {
   }
   doc.moveDown(0.3);
   doc.font('Helvetica-Bold').fontSize(10).fillColor(b.verdict === 'closes' ? COLOURS.accent : COLOURS.warn).text(pdfText(verdictWords[b.verdict] ?? b.verdict), x);
+  const why = storedWhy(b);
+  if (why) doc.font('Helvetica').fontSize(10).fillColor(COLOURS.ink).text(pdfText(`Why: ${why}`), x);
   doc.moveDown(0.3);
   const notes: [string, string][] = [
     ['Heat', `electrical ${sig(b.heat.electrical, 5)} J, heat leak ${sig(b.heat.leak, 4)} J, wall uptake ${sig(b.heat.wall, 4)} J`],

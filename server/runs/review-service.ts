@@ -14,6 +14,8 @@ import { checkSignerPassword } from './signer-password';
 import { insertReadings } from './runs-service';
 
 const meaningsFor: Record<ReviewAction, readonly string[]> = { approve: approvalMeanings, return: returnMeanings, reject: rejectionMeanings };
+/** Shortest written justification for approving a run whose check breaks or is indeterminate. */
+export const MIN_JUSTIFICATION = 20;
 const pastTense: Record<ReviewAction, string> = { approve: 'approved', return: 'returned for correction', reject: 'rejected' };
 
 export class ReviewService {
@@ -39,8 +41,12 @@ export class ReviewService {
       const [result] = await tx.select().from(balanceResults).where(and(eq(balanceResults.runId, id), eq(balanceResults.current, true)));
       if (action === 'approve') {
         if (!result || result.runVersion !== run.version) throw conflict(`Run ${run.code} has no balance result for its current version yet; wait for the check to finish, then approve.`);
-        if (result.verdict === 'breaks' && reason.length < 20) {
-          throw badRequest(`The energy balance of run ${run.code} breaks (En = ${result.en?.toFixed(2)}). Approving it needs a written justification of at least 20 characters in reason.`, [{ field: 'reason', message: 'justification required for a breaking balance' }]);
+        if (result.verdict === 'breaks' && reason.length < MIN_JUSTIFICATION) {
+          throw badRequest(`The energy balance of run ${run.code} breaks (En = ${result.en?.toFixed(2)}). Approving it needs a written justification of at least ${MIN_JUSTIFICATION} characters in reason.`, [{ field: 'reason', message: `Write at least ${MIN_JUSTIFICATION} characters saying why this run may be approved although its balance breaks.` }]);
+        }
+        // An indeterminate check proved nothing either way, so approving one is a judgement that must be written down too.
+        if (result.verdict === 'indeterminate' && reason.length < MIN_JUSTIFICATION) {
+          throw badRequest(`The check of run ${run.code} is indeterminate: its uncertainty is too wide to tell whether the balance closes. Approving it needs a written justification of at least ${MIN_JUSTIFICATION} characters in reason.`, [{ field: 'reason', message: `Write at least ${MIN_JUSTIFICATION} characters saying why this run may be approved although its check is indeterminate.` }]);
         }
       }
       const rows = await loadReadings(tx, id);

@@ -116,12 +116,37 @@ describe('review rules', () => {
     const bare = await investigator.post(`/api/runs/${run.id}/approve`, { version: v, password: 'qwell-demo-lab', meaning: approvalMeanings[0] });
     expect(bare.status).toBe(400);
     expect(bare.body.detail).toMatch(/justification/);
+    expect(stored.why).toMatch(/^No heat leak was accounted for: a heat-loss coefficient h ≈ [\d.]+ W\/K would close the balance\.$/);
     const justified = await investigator.post(`/api/runs/${run.id}/approve`, {
       version: v, password: 'qwell-demo-lab', meaning: approvalMeanings[0], reason: 'Heat leak is corrected in the report by the bath model; the raw balance is kept as recorded.',
     });
     expect(justified.status).toBe(200);
     const [breakMail] = await h.handle.db.select().from(mailOutbox).where(eq(mailOutbox.subject, `Run ${run.code}: the energy balance breaks`));
     expect(breakMail.recipient).toBe(demoEmail('investigator'));
+  });
+
+  it('requires a written justification to approve an indeterminate check, and says why it is indeterminate', async () => {
+    const doc = loadFixture('isobaric');
+    doc.apparatus!.heatLossCoefficient!.u = 0.003; // u(h) so wide the balance says nothing
+    const bodies = runBodies(doc, projectId);
+    const created = await tech.post('/api/runs', bodies.create);
+    const put = await tech.put(`/api/runs/${created.body.id}/readings`, { version: created.body.version, ...bodies.readings });
+    const id = created.body.id as number;
+    await tech.post(`/api/runs/${id}/submit`, { version: put.body.version });
+    const stored = await waitForResult(id);
+    expect(stored.result.verdict).toBe('indeterminate');
+    expect(stored.why).toMatch(/^U\(r\) = .* J is wider than the lab's limit of .* J, mostly from heat-loss coefficient \(\d+ % of u²\(r\)\)/);
+    const v = (await tech.get(`/api/runs/${id}`)).body.version;
+    const short = await investigator.post(`/api/runs/${id}/approve`, { version: v, password: 'qwell-demo-lab', meaning: approvalMeanings[0], reason: 'fine' });
+    expect(short.status).toBe(400);
+    expect(short.body.detail).toMatch(/indeterminate.*justification of at least 20 characters/);
+    expect(short.body.errors[0].field).toBe('reason');
+    const [{ n: unsigned }] = await h.handle.db.select({ n: count() }).from(signatures).where(eq(signatures.runId, id));
+    expect(unsigned).toBe(0);
+    const justified = await investigator.post(`/api/runs/${id}/approve`, {
+      version: v, password: 'qwell-demo-lab', meaning: approvalMeanings[0], reason: 'Heat-loss coefficient is re-measured next week; the run is kept for the teaching set only.',
+    });
+    expect(justified.status).toBe(200);
   });
 
   it('refuses a signature with the wrong password and signs nothing', async () => {

@@ -13,6 +13,9 @@ export function auditFilterParams(filters: AuditFilters): Record<string, string>
       params[key] = String(value);
     }
   }
+  if (filters.hideSignIns) {
+    params['signIns'] = 'hide';
+  }
   return params;
 }
 

@@ -19,6 +19,16 @@ export interface AuditEvent {
   ip: string | null;
   prevHash: string;
   hash: string;
+  /** The person's name; null for events the system wrote. */
+  actorName: string | null;
+  /** What happened in plain words, e.g. "Submitted for review". */
+  actionLabel: string;
+  /** The record type as a word ("Run", "Instrument"). */
+  recordType: string;
+  /** The record by its code ("R-2026-0007 rev. 1", "PG-2"), or `#id` when it has none. */
+  record: string;
+  /** Before and after as the fields that differ; null on a side means the field was not there. */
+  changes: { field: string; before: string | null; after: string | null }[];
 }
 
 /** Body of `GET /api/audit`. */
@@ -33,8 +43,10 @@ export interface AuditPage {
 export interface AuditQuery {
   page: number;
   pageSize: number;
-  /** Run id. */
-  run: number | null;
+  /** Run code, e.g. R-2026-0007 (every revision), or a run id. */
+  run: string | null;
+  /** Leave sign-ins, sign-outs and failed sign-ins out. */
+  hideSignIns: boolean;
   /** Person id of the actor. */
   person: number | null;
   action: string | null;
@@ -87,14 +99,17 @@ export const KNOWN_ACTIONS: readonly string[] = [
   'signature.refused',
 ];
 
-export const ENTITY_TYPES: readonly string[] = [
-  'run',
-  'signature',
-  'instrument',
-  'apparatus',
-  'person',
-  'project',
-  'lab',
+/** Record types, with the one word the page, the filters and the exports use for each. */
+export const RECORD_TYPES: readonly { value: string; label: string }[] = [
+  { value: 'run', label: 'Run' },
+  { value: 'signature', label: 'Signature' },
+  { value: 'instrument', label: 'Instrument' },
+  { value: 'apparatus', label: 'Apparatus' },
+  { value: 'person', label: 'Person' },
+  { value: 'project', label: 'Project' },
+  { value: 'import', label: 'Import' },
+  { value: 'column-map', label: 'Column map' },
+  { value: 'audit', label: 'Audit trail' },
 ];
 
 /** A person who appears in the trail. */

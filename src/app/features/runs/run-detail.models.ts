@@ -142,6 +142,8 @@ export interface BalanceResponse {
   stale: boolean;
   computedAt: string;
   result: BalanceResult;
+  /** One sentence of why beside a verdict that breaks or is indeterminate (server-built); null when it closes. */
+  why: string | null;
 }
 
 /** One audit event of the run or its revisions. */

@@ -25,6 +25,14 @@ const page: AuditPage = {
       ip: '127.0.0.1',
       prevHash: 'a'.repeat(64),
       hash: 'b'.repeat(64),
+      actorName: 'Sam Reyes',
+      actionLabel: 'Added a calibration',
+      recordType: 'Instrument',
+      record: 'PG-2',
+      changes: [
+        { field: 'certificate', before: null, after: 'HIAT-CAL-2402' },
+        { field: 'due on', before: null, after: '2027-11-20' },
+      ],
     },
   ],
   total: 120,
@@ -136,16 +144,16 @@ describe('AuditTrail', () => {
       Array.from(form?.querySelectorAll('mat-form-field') ?? [])
         .find((f) => f.querySelector('mat-label')?.textContent?.trim() === label)
         ?.querySelector('input') as HTMLInputElement;
-    input('Run id').value = '7';
-    input('Run id').dispatchEvent(new Event('input'));
+    input('Run code').value = ' r-2026-0007 ';
+    input('Run code').dispatchEvent(new Event('input'));
     input('From').value = '2026-11-01';
     input('From').dispatchEvent(new Event('input'));
     form?.dispatchEvent(new Event('submit'));
     await harness.fixture.whenStable();
 
-    expect(TestBed.inject(Router).url).toBe('/audit?run=7&from=2026-11-01');
+    expect(TestBed.inject(Router).url).toBe('/audit?run=R-2026-0007&from=2026-11-01');
     const params = expectList().request.params;
-    expect(params.get('run')).toBe('7');
+    expect(params.get('run')).toBe('R-2026-0007');
     expect(params.get('from')).toBe('2026-11-01');
     expect(params.get('page')).toBe('1');
   });
@@ -156,9 +164,11 @@ describe('AuditTrail', () => {
     await harness.fixture.whenStable();
 
     const row = root().querySelector('tr.mat-mdc-row');
-    expect(row?.textContent).toContain('quality@lab.test');
-    expect(row?.textContent).toContain('calibration.create');
-    expect(row?.textContent).toContain('instrument 3');
+    // People by name, actions in words, records by their codes.
+    expect(row?.textContent).toContain('Sam Reyes');
+    expect(row?.textContent).toContain('Added a calibration');
+    expect(row?.textContent).toContain('Instrument PG-2');
+    expect(row?.textContent).not.toContain('calibration.create');
     expect(root().querySelector('.detail')).toBeNull();
 
     const toggle = row?.querySelector<HTMLButtonElement>('button[aria-expanded]');
@@ -167,8 +177,27 @@ describe('AuditTrail', () => {
 
     expect(toggle?.getAttribute('aria-expanded')).toBe('true');
     const detail = root().querySelector('.detail');
-    expect(detail?.textContent).toContain('(nothing)');
-    expect(detail?.textContent).toContain('"certificate": "HIAT-CAL-2402"');
+    const rows = Array.from(detail?.querySelectorAll('table.changes tbody tr') ?? []).map((tr) =>
+      Array.from(tr.children).map((cell) => cell.textContent?.trim()),
+    );
+    expect(rows).toEqual([
+      ['certificate', '—', 'HIAT-CAL-2402'],
+      ['due on', '—', '2027-11-20'],
+    ]);
+    // The stored JSON stays one click away.
+    expect(detail?.querySelector('details.raw')?.textContent).toContain('"certificate": "HIAT-CAL-2402"');
+  });
+
+  it('leaves sign-ins out when asked, in the address and the request', async () => {
+    await harness.navigateByUrl('/audit');
+    expectList().flush(page);
+    await harness.fixture.whenStable();
+    const box = root().querySelector<HTMLInputElement>('form.filters mat-checkbox input')!;
+    box.click();
+    root().querySelector<HTMLFormElement>('form.filters')?.dispatchEvent(new Event('submit'));
+    await harness.fixture.whenStable();
+    expect(TestBed.inject(Router).url).toBe('/audit?hideSignIns=true');
+    expect(expectList().request.params.get('signIns')).toBe('hide');
   });
 
   it('shows and announces an intact chain with the number of events checked', async () => {

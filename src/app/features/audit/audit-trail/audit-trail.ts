@@ -4,6 +4,7 @@ import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@a
 import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
 import { FormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -22,14 +23,14 @@ import {
   AuditPage,
   AuditQuery,
   ChainCheck,
-  ENTITY_TYPES,
   ExportFormat,
   KNOWN_ACTIONS,
+  RECORD_TYPES,
 } from '../audit.models';
-import { AUDIT_PAGE_SIZES, DEFAULT_AUDIT_QUERY, auditQueryFrom } from './audit-query';
+import { AUDIT_PAGE_SIZES, DEFAULT_AUDIT_QUERY, auditQueryFrom, runCode } from './audit-query';
 
 const EXPORT_FORMATS: readonly { format: ExportFormat; label: string; icon: string }[] = [
-  { format: 'xlsx', label: 'Excel (.xlsx)', icon: 'table_view' },
+  { format: 'xlsx', label: 'Workbook (.xlsx)', icon: 'table_view' },
   { format: 'csv', label: 'CSV', icon: 'description' },
   { format: 'pdf', label: 'PDF report', icon: 'picture_as_pdf' },
 ];
@@ -41,6 +42,7 @@ const EXPORT_FORMATS: readonly { format: ExportFormat; label: string; icon: stri
     DatePipe,
     JsonPipe,
     MatButtonModule,
+    MatCheckboxModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
@@ -67,7 +69,7 @@ export class AuditTrail {
   protected readonly columns = ['occurredAt', 'who', 'action', 'record', 'reason', 'expand'];
   protected readonly pageSizes = AUDIT_PAGE_SIZES;
   protected readonly actions = KNOWN_ACTIONS;
-  protected readonly entityTypes = ENTITY_TYPES;
+  protected readonly recordTypes = RECORD_TYPES;
   protected readonly exportFormats = EXPORT_FORMATS;
 
   protected readonly query = toSignal(this.route.queryParamMap.pipe(map(auditQueryFrom)), {
@@ -82,7 +84,8 @@ export class AuditTrail {
   protected readonly chainProblem = signal<ProblemDetails | null>(null);
 
   protected readonly filterForm = inject(FormBuilder).group({
-    run: [null as number | null],
+    run: [''],
+    hideSignIns: [false],
     person: [null as number | null],
     action: [''],
     entityType: [''],
@@ -94,7 +97,7 @@ export class AuditTrail {
   );
   protected readonly activeFilterCount = computed(() => {
     const { page: _page, pageSize: _size, ...filters } = this.query();
-    return Object.values(filters).filter((value) => value !== null).length;
+    return Object.values(filters).filter((value) => value !== null && value !== false).length;
   });
 
   constructor() {
@@ -122,7 +125,8 @@ export class AuditTrail {
   protected applyFilters(): void {
     const value = this.filterForm.getRawValue();
     this.updateQuery({
-      run: value.run || null,
+      run: runCode(value.run ?? null),
+      hideSignIns: value.hideSignIns ?? false,
       person: value.person || null,
       action: value.action?.trim() || null,
       entityType: value.entityType || null,
@@ -185,7 +189,8 @@ export class AuditTrail {
 
   private showFilters(query: AuditQuery): void {
     this.filterForm.setValue({
-      run: query.run,
+      run: query.run ?? '',
+      hideSignIns: query.hideSignIns,
       person: query.person,
       action: query.action ?? '',
       entityType: query.entityType ?? '',

@@ -104,6 +104,17 @@ describe('ReviewDialog', () => {
     expect(close).toHaveBeenCalledWith('approve');
   });
 
+  it('asks for a justification before approving an indeterminate check, and says why', async () => {
+    await open('approve', 'indeterminate');
+    expect(await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: /Justification/ }))).toBeTruthy();
+    expect(text()).toContain('The check of this run is indeterminate');
+    await (await password()).setValue('secret-pass');
+    await (await reason()).setValue('Looks fine.');
+    await (await signButton()).click();
+    httpTesting.expectNone('/api/runs/7/approve');
+    expect(text()).toContain('Write at least 20 characters saying why this run should be approved.');
+  });
+
   it('posts a return with the version read, the password, the only meaning and the reason', async () => {
     await open('return');
     await (await password()).setValue('pa55word!');

@@ -63,8 +63,9 @@ export class ReviewDialog {
 
   protected readonly words = ACTION_WORDS[this.data.action];
   protected readonly meanings = REVIEW_MEANINGS[this.data.action];
-  /** Approving a balance that breaks is allowed only with a written justification. */
-  protected readonly needsJustification = this.data.action === 'approve' && this.data.result.verdict === 'breaks';
+  /** Approving a balance that breaks, or a check that cannot tell, is allowed only with a written justification. */
+  protected readonly needsJustification =
+    this.data.action === 'approve' && (this.data.result.verdict === 'breaks' || this.data.result.verdict === 'indeterminate');
   protected readonly minReason =
     this.needsJustification ? MIN_JUSTIFICATION : this.data.action === 'approve' ? 0 : MIN_REASON;
   protected readonly reasonLabel = this.needsJustification

@@ -27,6 +27,8 @@ interface IntervalBar {
 })
 export class BalanceCard {
   readonly result = input.required<BalanceResult>();
+  /** The server's one sentence of why, shown beside a verdict that breaks or is indeterminate. */
+  readonly why = input<string | null>(null);
 
   protected readonly k = computed(() => this.result().residual.k);
 

@@ -11,7 +11,8 @@ import { BehaviorSubject, Observable, catchError, combineLatest, map, of, switch
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
-import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
+import { BackoffPoll } from '../../../shared/polling/backoff-poll';
+import { VERDICT_LOOKS, VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { ReviewDialog, ReviewDialogData } from '../review-dialog/review-dialog';
 import { RunsApi } from '../runs-api';
 import { BalanceResponse, HistoryEvent, RUN_STATE_LABELS, ReviewAction, RunRecord, RunState } from '../runs.models';
@@ -80,6 +81,9 @@ export class RunDetail {
   private readonly readingsTable = viewChild(ReadingsTable);
   private readonly document = inject(DOCUMENT);
   private readonly reload$ = new BehaviorSubject<void>(undefined);
+  /** Asks again while a submitted run's check is running, so the verdict appears without a reload. */
+  private readonly poll = new BackoffPoll(() => this.reload$.next());
+  private awaitingResult = false;
 
   protected readonly stateLabels = RUN_STATE_LABELS;
   protected readonly stateIcons = STATE_ICONS;
@@ -177,6 +181,7 @@ export class RunDetail {
         } else {
           this.runProblem.set(loaded.problem);
         }
+        this.followCheck();
       });
     id$
       .pipe(
@@ -186,6 +191,7 @@ export class RunDetail {
       .subscribe((loaded) => {
         this.balance.set('value' in loaded ? loaded.value : null);
         this.balanceProblem.set('problem' in loaded ? loaded.problem : null);
+        this.followCheck();
       });
     id$
       .pipe(
@@ -193,6 +199,33 @@ export class RunDetail {
         takeUntilDestroyed(),
       )
       .subscribe((loaded) => this.history.set('value' in loaded ? loaded.value.items : []));
+  }
+
+  /**
+   * While a submitted run has no current result, asks again with growing waits; once the result is
+   * there, stops and announces the verdict.
+   */
+  private followCheck(): void {
+    const run = this.run();
+    const balance = this.balance();
+    if (!run) {
+      return;
+    }
+    const noResult = balance === null ? this.balanceProblem()?.status === 404 : balance.stale;
+    // The run and its result are read side by side; the run may still be a step behind the result.
+    const runBehind = balance !== null && !balance.stale && (!run.balance || run.balance.stale);
+    const waiting = run.state === 'submitted' && (noResult || runBehind);
+    if (waiting) {
+      this.awaitingResult = true;
+      this.poll.schedule();
+      return;
+    }
+    this.poll.stop();
+    if (this.awaitingResult && balance) {
+      this.awaitingResult = false;
+      const look = VERDICT_LOOKS[balance.result.verdict];
+      void this.announcer.announce(`The balance check of run ${run.code} has finished: ${look.meaning}.`, 'polite');
+    }
   }
 
   protected openReview(action: ReviewAction): void {

@@ -13,12 +13,13 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { ActivatedRoute, ParamMap, Router, RouterLink } from '@angular/router';
-import { catchError, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
+import { Subject, catchError, distinctUntilChanged, map, merge, of, switchMap, tap } from 'rxjs';
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { ProjectsApi } from '../../projects/projects-api';
-import { Verdict, VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
+import { BackoffPoll } from '../../../shared/polling/backoff-poll';
+import { VERDICT_LOOKS, Verdict, VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { addressParams, pageRangeMessage } from '../../../shared/paging/paged-query';
 import { RunsApi } from '../runs-api';
 import {
@@ -124,22 +125,33 @@ export class RunList {
   protected readonly loading = signal(true);
   protected readonly problem = signal<ProblemDetails | null>(null);
 
+  /** Silent re-reads of the same page while a run on it waits for its balance check. */
+  private readonly refresh$ = new Subject<void>();
+  private readonly poll = new BackoffPoll(() => this.refresh$.next());
+
   constructor() {
-    this.route.queryParamMap
+    const queries = this.route.queryParamMap.pipe(
+      map(runQueryFrom),
+      distinctUntilChanged((a, b) => JSON.stringify(a) === JSON.stringify(b)),
+      tap(() => {
+        this.loading.set(true);
+        this.poll.stop();
+      }),
+      map((query) => ({ query, silent: false })),
+    );
+    merge(queries, this.refresh$.pipe(map(() => ({ query: this.query(), silent: true }))))
       .pipe(
-        map(runQueryFrom),
-        distinctUntilChanged((a, b) => JSON.stringify(a) === JSON.stringify(b)),
-        tap(() => this.loading.set(true)),
         // Errors are caught per request so that the next filter or page still loads.
-        switchMap((query) =>
+        switchMap(({ query, silent }) =>
           this.api.list(query).pipe(
             map((page): RunPage | ProblemDetails => page),
             catchError((error: unknown) => of(toProblem(error))),
+            map((outcome) => ({ outcome, silent })),
           ),
         ),
         takeUntilDestroyed(),
       )
-      .subscribe((outcome) => ('items' in outcome ? this.show(outcome) : this.fail(outcome)));
+      .subscribe(({ outcome, silent }) => ('items' in outcome ? this.show(outcome, silent) : this.fail(outcome)));
   }
 
   protected stateLabel(state: RunState): string {
@@ -158,6 +170,7 @@ export class RunList {
     return [...byId.values()].sort((a, b) => a.name.localeCompare(b.name));
   });
   protected readonly verdicts = VERDICTS;
+  protected readonly verdictLooks = VERDICT_LOOKS;
 
   protected filterByState(state: RunState | null): void {
     this.updateQuery({ state, page: 1 });
@@ -192,11 +205,26 @@ export class RunList {
     void this.router.navigate([], { relativeTo: this.route, queryParams, queryParamsHandling: 'merge' });
   }
 
-  private show(page: RunPage): void {
+  private show(page: RunPage, silent: boolean): void {
+    const before = new Map((this.result()?.items ?? []).map((run) => [run.id, run.verdict]));
     this.result.set(page);
     this.problem.set(null);
     this.loading.set(false);
-    void this.announcer.announce(pageRangeMessage(page, 'Runs'), 'polite');
+    if (!silent) {
+      void this.announcer.announce(pageRangeMessage(page, 'Runs'), 'polite');
+    } else {
+      const checked = page.items.filter((run) => run.verdict && before.has(run.id) && before.get(run.id) === null);
+      if (checked.length) {
+        const words = checked.map((run) => `${run.code}: ${VERDICT_LOOKS[run.verdict!].word}`).join('; ');
+        void this.announcer.announce(`Balance check finished for ${words}.`, 'polite');
+      }
+    }
+    // A submitted run without a verdict is being checked: ask again until every one on the page has its verdict.
+    if (page.items.some((run) => run.state === 'submitted' && run.verdict === null)) {
+      this.poll.schedule();
+    } else {
+      this.poll.stop();
+    }
   }
 
   private fail(problem: ProblemDetails): void {
