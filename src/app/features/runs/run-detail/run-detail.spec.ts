@@ -1,3 +1,4 @@
+import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
@@ -71,7 +72,7 @@ const result = {
   inputHash: 'abc',
 } as unknown as BalanceResult;
 
-const balance: BalanceResponse = { runVersion: 3, currentRunVersion: 3, stale: false, computedAt: '2026-03-14T10:00:00Z', result };
+const balance: BalanceResponse = { runVersion: 3, currentRunVersion: 3, stale: false, computedAt: '2026-03-14T10:00:00Z', result, why: null };
 
 describe('RunDetail', () => {
   // The first test compiles the lazy run page and its charts; on a busy 2-core machine that can pass 5 s.
@@ -169,5 +170,40 @@ describe('RunDetail', () => {
     expect(page().textContent).toContain('Run R-2026-0002 is being checked; its result appears here shortly.');
     expect(page().querySelector('qw-balance-card')).toBeNull();
     expect(buttons().some((text) => /Approve/.test(text))).toBe(false);
+  });
+
+  it('asks again while the check runs, shows the verdict and its why without a reload, and announces it', async () => {
+    jest.useFakeTimers({ advanceTimers: true });
+    try {
+      await openAs('investigator', 3);
+      const announce = jest.spyOn(TestBed.inject(LiveAnnouncer), 'announce').mockResolvedValue();
+      const checking = { ...run, verdict: null, balance: null };
+      httpTesting.expectOne('/api/runs/2').flush(checking);
+      httpTesting
+        .expectOne('/api/runs/2/balance')
+        .flush({ title: 'Not found', status: 404, detail: 'Run R-2026-0002 is being checked.' }, { status: 404, statusText: 'Not Found' });
+      httpTesting.expectOne('/api/runs/2/history').flush({ items: [] });
+      await harness.fixture.whenStable();
+      expect(page().querySelector('qw-balance-card')).toBeNull();
+
+      // The first poll comes after one second; nothing is asked before.
+      jest.advanceTimersByTime(900);
+      httpTesting.expectNone('/api/runs/2/balance');
+      jest.advanceTimersByTime(100);
+      const why = 'U(r) = 30 J is wider than the lab\'s limit of 12 J, mostly from PG-2 (80 % of u²(r)).';
+      httpTesting.expectOne('/api/runs/2').flush({ ...run, verdict: 'indeterminate' });
+      httpTesting.expectOne('/api/runs/2/balance').flush({ ...balance, result: { ...result, verdict: 'indeterminate' }, why });
+      httpTesting.expectOne('/api/runs/2/history').flush({ items: [] });
+      await harness.fixture.whenStable();
+
+      expect(page().querySelector('qw-balance-card qw-verdict-display')?.textContent).toContain('Indeterminate');
+      expect(page().querySelector('qw-balance-card .why')?.textContent).toContain(why);
+      expect(announce).toHaveBeenCalledWith(expect.stringContaining('The balance check of run R-2026-0002 has finished: Indeterminate'), 'polite');
+      // Once the result is there, nothing more is asked.
+      jest.advanceTimersByTime(60_000);
+      httpTesting.expectNone('/api/runs/2/balance');
+    } finally {
+      jest.useRealTimers();
+    }
   });
 });

@@ -1,3 +1,4 @@
+import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, TestRequest, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
@@ -61,6 +62,48 @@ describe('RunList', () => {
     await harness.navigateByUrl('/runs?verdict=great&project=abc&from=yesterday&mine=yes');
     const params = expectList().request.params;
     expect(['verdict', 'project', 'from', 'mine'].map((k) => params.has(k))).toEqual([false, false, false, false]);
+  });
+
+  it('re-reads the page quietly while a submitted run waits for its check, and announces the verdict when it comes', async () => {
+    jest.useFakeTimers({ advanceTimers: true });
+    try {
+      const announce = jest.spyOn(TestBed.inject(LiveAnnouncer), 'announce').mockResolvedValue();
+      await harness.navigateByUrl('/runs?state=submitted');
+      const waiting = { ...page, items: [{ ...page.items[0], verdict: null }] };
+      expectList().flush(waiting);
+      await harness.fixture.whenStable();
+      expect(harness.fixture.nativeElement.querySelector('td qw-verdict-display')?.textContent).toContain('Not checked');
+
+      jest.advanceTimersByTime(1000);
+      expectList().flush(waiting);
+      await harness.fixture.whenStable();
+      // The wait doubles after an empty answer.
+      jest.advanceTimersByTime(1900);
+      httpTesting.expectNone((request) => request.url === '/api/runs');
+      jest.advanceTimersByTime(100);
+      const request = expectList();
+      expect(request.request.params.get('state')).toBe('submitted');
+      request.flush(page);
+      await harness.fixture.whenStable();
+
+      expect(harness.fixture.nativeElement.querySelector('td qw-verdict-display')?.textContent).toContain('Breaks');
+      expect(announce).toHaveBeenCalledWith('Balance check finished for R-0007: Breaks.', 'polite');
+      jest.advanceTimersByTime(60_000);
+      httpTesting.expectNone((request) => request.url === '/api/runs');
+    } finally {
+      jest.useRealTimers();
+    }
+  });
+
+  it('names the verdicts in the balance filter in words', async () => {
+    await harness.navigateByUrl('/runs');
+    expectList().flush(page);
+    await harness.fixture.whenStable();
+    const triggers = harness.fixture.nativeElement.querySelectorAll('mat-select .mat-mdc-select-trigger') as NodeListOf<HTMLElement>;
+    triggers[1].click();
+    await harness.fixture.whenStable();
+    const options = Array.from(document.querySelectorAll('mat-option')).map((o) => o.textContent?.trim());
+    expect(options).toEqual(['Any balance', 'Closes', 'Breaks', 'Indeterminate']);
   });
 
   function expectList(): TestRequest {
