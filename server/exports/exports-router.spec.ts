@@ -148,7 +148,7 @@ describe('GET /api/audit/export?format=pdf', () => {
     expect(text).toContain('entityType=run');
     expect(text).toMatch(/VALID: every one of the \d+ events/);
     expect(text).toContain(`Page ${pages} of ${pages}`);
-    expect(text).toContain('seed.run');
+    expect(text).toContain('Loaded a demo run'); // actions in words, not codes
     expect((await lastEvent('audit.export')).after).toMatchObject({ format: 'pdf', filters: { entityType: 'run' }, sha256: fileHash });
   });
 });
