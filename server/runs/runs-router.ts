@@ -13,6 +13,7 @@ import { isReviewAction, SignatureDto } from './review-dto';
 import { ReviewService } from './review-service';
 import { CreateRunDto, ReplaceReadingsDto, ReviseDto, RunListQuery, UpdateRunDto, VersionDto } from './runs-dto';
 import { RunsService } from './runs-service';
+import { countReadings, runChecklist } from './submit-checklist';
 
 const READERS = ['technician', 'assistant', 'investigator', 'quality'] as const;
 const AUTHORS = ['technician', 'assistant', 'investigator'] as const;
@@ -59,6 +60,12 @@ export function runsRouter(db: Database, config: Config, queue: JobQueue | null)
       const { run, row } = await service.latestResult(req.person!, idParam(req.params['id'], 'run'));
       return balanceResponse(run, row);
     });
+  });
+
+  /** What a draft still lacks before submit, in the form's words; changes nothing. */
+  router.get('/:id/checklist', requireRole(...READERS), async (req, res) => {
+    const id = idParam(req.params['id'], 'run');
+    res.json(await runChecklist(db, req.person!, id, config.labName, (runId) => countReadings(db, runId)));
   });
 
   router.get('/:id/history', requireRole(...READERS), async (req, res) => {

@@ -13,6 +13,7 @@ import { loadRunFor, loadVisibleRun, type RunRow } from './run-access';
 import { parseReadingsInput, readingsToRows, type ReadingRow } from './run-document-mapper';
 import { loadReadings, loadRunDocument } from './run-loader';
 import type { RunSetup } from './run-setup';
+import { submitProblems } from './submit-checklist';
 import type { CreateRunDto, ReplaceReadingsDto, RunListQuery, UpdateRunDto } from './runs-dto';
 
 /** Projects whose runs a person may see; null means every project (quality officers). */
@@ -202,11 +203,11 @@ export class RunsService {
   async submit(person: SessionPerson, id: number, version: number, ip: string | null) {
     const result = await this.db.transaction(async (tx) => {
       const before = await loadRunFor(tx, person, id, 'submit', version);
-      const doc = await loadRunDocument(tx, before, this.config.labName);
-      const valid = validateRunDocument(doc);
-      if (!valid.ok) {
-        throw badRequest(`Run ${before.code} is not complete enough to check: ${valid.errors.length} problem(s). Nothing was changed.`,
-          valid.errors.map((e) => ({ field: e.path, message: e.message })));
+      const [{ n }] = await tx.select({ n: count() }).from(readings).where(eq(readings.runId, id));
+      const missing = await submitProblems(tx, before, this.config.labName, n);
+      if (missing.length) {
+        throw badRequest(`Run ${before.code} is not complete enough to check: ${missing.length === 1 ? 'one thing is' : `${missing.length} things are`} still missing. Nothing was changed.`,
+          missing.map((e) => ({ field: e.field, label: e.label, message: e.message })));
       }
       const unstated = channelsWithoutInstrument(valid.doc);
       if (unstated.length > 0) {

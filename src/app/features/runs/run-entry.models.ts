@@ -118,6 +118,16 @@ export interface RunDraft {
   version: number;
   setup: DraftSetup | null;
   readings: { count: number; time: number[] } & Record<ReadingChannel, (number | null)[]>;
+  /** The reviewer's reason, while the run is returned for correction. */
+  returnReason?: string | null;
+}
+
+/** `GET /api/runs/:id/checklist`: what a draft still lacks before submit, in the form's words. */
+export interface RunChecklistResponse {
+  runId: number;
+  version: number;
+  complete: boolean;
+  missing: { field: string; label: string; message: string }[];
 }
 
 /** Body of `POST /api/runs`. */

@@ -11,6 +11,7 @@ import {
   Project,
   ReadingsBody,
   ReviewAction,
+  RunChecklistResponse,
   RunDraft,
   HistoryPage,
   RunPage,
@@ -60,6 +61,11 @@ export class RunsApi {
   /** One run with its setup and its readings in SI, for editing. */
   draft(id: number): Observable<RunDraft> {
     return this.http.get<RunDraft>(`/api/runs/${id}`);
+  }
+
+  /** What a draft still lacks before submit, in the form's words (changes nothing). */
+  checklist(id: number): Observable<RunChecklistResponse> {
+    return this.http.get<RunChecklistResponse>(`/api/runs/${id}/checklist`);
   }
 
   /** Creates a draft; answers the new run with its id, code and version. */

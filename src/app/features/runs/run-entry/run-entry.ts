@@ -19,7 +19,8 @@ import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { InstrumentsApi } from '../../instruments/instruments-api';
 import { Instrument } from '../../instruments/instruments.models';
 import { RunsApi } from '../runs-api';
-import { ApparatusItem, DraftSetup, Gas, Project, READING_CHANNELS, RUN_PROCESSES, ReadingChannel, RunDraft } from '../runs.models';
+import { ApparatusItem, DraftSetup, Gas, Project, READING_CHANNELS, RUN_PROCESSES, RUN_STATE_LABELS, ReadingChannel, RunDraft } from '../runs.models';
+import { RunChecklist } from '../run-checklist/run-checklist';
 import { InstrumentPicker } from './instrument-picker/instrument-picker';
 import { GridColumn, ReadingsGrid } from './readings-grid/readings-grid';
 import { ReadingsSheet } from './readings-grid/readings-sheet';
@@ -50,6 +51,7 @@ function today(): string {
 @Component({
   selector: 'qw-run-entry',
   imports: [
+    RunChecklist,
     DatePipe,
     InstrumentPicker,
     MatButtonModule,
@@ -101,6 +103,9 @@ export class RunEntry implements OnInit {
   protected readonly loading = signal(true);
   protected readonly loadProblem = signal<ProblemDetails | null>(null);
   protected readonly locked = signal<RunDraft | null>(null);
+  /** The reviewer's reason on a returned run, shown above the form. */
+  protected readonly returnReason = signal<string | null>(null);
+  protected readonly stateLabels = RUN_STATE_LABELS;
   protected readonly submitProblem = signal<ProblemDetails | null>(null);
   protected readonly submitting = signal(false);
   /** Set by the first submit: from then on every unmet rule shows, touched or not. */
@@ -256,6 +261,7 @@ export class RunEntry implements OnInit {
         this.loading.set(false);
         return;
       }
+      this.returnReason.set(draft.state === 'returned' ? (draft.returnReason ?? null) : null);
       this.setupBase.set(draft.setup ?? {});
       this.sheet.set(loadDraft(this.form, draft, this.gases()));
       this.begin(draft);

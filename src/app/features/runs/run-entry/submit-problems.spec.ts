@@ -8,6 +8,7 @@ describe('problemSentence', () => {
     [{ field: 'readings.time.values', message: 'needs at least 2 readings, got 0' }, 'The time column needs at least 2 readings, got 0.'],
     [{ field: 'readings.voltage', message: 'is required' }, 'The heater voltage column is required.'],
     [{ field: 'apparatus.heatCapacity', message: 'is required for gas.model "calorimeter" (ΔU = C·ΔT)' }, 'The apparatus heat capacity is required for gas.model "calorimeter" (ΔU = C·ΔT).'],
+    [{ field: 'gas', message: 'Choose the gas, or an apparatus with a measured heat capacity for a calorimeter run.' }, 'Choose the gas, or an apparatus with a measured heat capacity for a calorimeter run.'],
   ])('turns %j into a sentence', (problem, sentence) => {
     expect(problemSentence(problem)).toBe(sentence);
   });

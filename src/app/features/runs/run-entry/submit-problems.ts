@@ -50,6 +50,10 @@ export function fieldLabel(field: string): string {
 
 /** One problem the server listed, as a sentence a person can act on. */
 export function problemSentence(problem: FieldProblem): string {
+  // The server now words submit problems as whole sentences ("Choose the gas."); older fragments get a subject.
+  if (/^[A-Z]/.test(problem.message.trim())) {
+    return problem.message.trim();
+  }
   const sentence = `${fieldLabel(problem.field)} ${problem.message.trim()}`;
   return /[.!?]$/.test(sentence) ? sentence : `${sentence}.`;
 }
