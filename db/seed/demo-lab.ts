@@ -34,15 +34,15 @@ export const demoGases = [
 ];
 
 export const demoInstruments = [
-  { tag: 'PG-2', name: 'Pressure transducer, piston cell', kind: 'pressure', manufacturer: 'Kestrel Gauges', serialNumber: 'KG-40117', unit: 'kPa', rangeMin: 0, rangeMax: 1000, spec: { percentOfFullScale: 0.1, fullScale: 1000, resolution: 0.01 } },
-  { tag: 'BA-1', name: 'Barometer, Lab B wall', kind: 'pressure', manufacturer: 'Kestrel Gauges', serialNumber: 'KG-20931', unit: 'mbar', rangeMin: 800, rangeMax: 1100, spec: { percentOfReading: 0.02, resolution: 0.1 } },
-  { tag: 'TC-7', name: 'Pt100 probe, piston cell', kind: 'temperature', manufacturer: 'Orrin Sensors', serialNumber: 'OS-7734', unit: 'degC', rangeMin: -50, rangeMax: 250, spec: { resolution: 0.01 } },
-  { tag: 'TC-9', name: 'Pt100 probe, bath calorimeter', kind: 'temperature', manufacturer: 'Orrin Sensors', serialNumber: 'OS-7791', unit: 'degC', rangeMin: -20, rangeMax: 120, spec: { resolution: 0.001 } },
-  { tag: 'LD-3', name: 'Displacement encoder, piston PC-3', kind: 'displacement', manufacturer: 'Tarn Motion', serialNumber: 'TM-1180', unit: 'mm', rangeMin: 0, rangeMax: 200, spec: { resolution: 0.01, percentOfReading: 0.05 } },
-  { tag: 'SV-1', name: 'Syringe volume scale, piston cell', kind: 'volume', manufacturer: 'Tarn Motion', serialNumber: 'TM-2204', unit: 'mL', rangeMin: 0, rangeMax: 500, spec: { resolution: 0.1, percentOfReading: 0.1 } },
+  { tag: 'PG-2', name: 'Pressure transducer, piston cell', kind: 'pressure', manufacturer: 'Harrowgate instrument workshop', serialNumber: 'KG-40117', unit: 'kPa', rangeMin: 0, rangeMax: 1000, spec: { percentOfFullScale: 0.1, fullScale: 1000, resolution: 0.01 } },
+  { tag: 'BA-1', name: 'Barometer, Lab B wall', kind: 'pressure', manufacturer: 'Harrowgate instrument workshop', serialNumber: 'KG-20931', unit: 'mbar', rangeMin: 800, rangeMax: 1100, spec: { percentOfReading: 0.02, resolution: 0.1 } },
+  { tag: 'TC-7', name: 'Pt100 probe, piston cell', kind: 'temperature', manufacturer: 'Harrowgate electronics workshop', serialNumber: 'OS-7734', unit: 'degC', rangeMin: -50, rangeMax: 250, spec: { resolution: 0.01 } },
+  { tag: 'TC-9', name: 'Pt100 probe, bath calorimeter', kind: 'temperature', manufacturer: 'Harrowgate electronics workshop', serialNumber: 'OS-7791', unit: 'degC', rangeMin: -20, rangeMax: 120, spec: { resolution: 0.001 } },
+  { tag: 'LD-3', name: 'Displacement encoder, piston PC-3', kind: 'displacement', manufacturer: 'Harrowgate mechanical workshop', serialNumber: 'TM-1180', unit: 'mm', rangeMin: 0, rangeMax: 200, spec: { resolution: 0.01, percentOfReading: 0.05 } },
+  { tag: 'SV-1', name: 'Syringe volume scale, piston cell', kind: 'volume', manufacturer: 'Harrowgate mechanical workshop', serialNumber: 'TM-2204', unit: 'mL', rangeMin: 0, rangeMax: 500, spec: { resolution: 0.1, percentOfReading: 0.1 } },
   { tag: 'VB-2', name: 'Gas burette, Lab B', kind: 'volume', manufacturer: 'Harrowgate glass workshop', serialNumber: 'HGW-0317', unit: 'L', rangeMin: 0, rangeMax: 2, spec: { resolution: 0.001, percentOfReading: 0.2 } },
-  { tag: 'DV-4', name: 'Bench multimeter, heater voltage', kind: 'voltage', manufacturer: 'Wexford Instruments', serialNumber: 'WI-5520', unit: 'V', rangeMin: 0, rangeMax: 60, spec: { percentOfReading: 0.05, resolution: 0.001 } },
-  { tag: 'DA-5', name: 'Bench multimeter, heater current', kind: 'current', manufacturer: 'Wexford Instruments', serialNumber: 'WI-5521', unit: 'A', rangeMin: 0, rangeMax: 10, spec: { percentOfReading: 0.1, resolution: 0.0001 } },
+  { tag: 'DV-4', name: 'Bench multimeter, heater voltage', kind: 'voltage', manufacturer: 'Harrowgate electronics workshop', serialNumber: 'WI-5520', unit: 'V', rangeMin: 0, rangeMax: 60, spec: { percentOfReading: 0.05, resolution: 0.001 } },
+  { tag: 'DA-5', name: 'Bench multimeter, heater current', kind: 'current', manufacturer: 'Harrowgate electronics workshop', serialNumber: 'WI-5521', unit: 'A', rangeMin: 0, rangeMax: 10, spec: { percentOfReading: 0.1, resolution: 0.0001 } },
 ] as const;
 
 /** Calibration dates relative to the seeding day, so the demo always shows a spread of statuses. */

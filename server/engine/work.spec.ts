@@ -57,7 +57,7 @@ describe('trapezoidal ∫P dV against REFERENCES §6 (computed)', () => {
   });
 });
 
-describe('model work for the other claimed processes (textbook ideal-gas results, common practice)', () => {
+describe('model work for the other claimed processes (standard ideal-gas results, common practice)', () => {
   it('isobaric P·ΔV, isochoric 0, polytropic (P1V1 − P2V2)/(n − 1) and its n = 1 limit', () => {
     expect(modelWork({ process: 'isobaric', P1, V1, P2: P1, V2, Pmean: 2e5, n, T1 }).value).toBeCloseTo(200, 10);
     expect(modelWork({ process: 'isochoric', P1, V1, P2: P1, V2: V1, Pmean: P1, n, T1 }).value).toBe(0);

@@ -195,7 +195,8 @@ describe('GET /api/runs/:id/report.pdf', () => {
     expect(text).toMatch(/The balance (closes|breaks)|Indeterminate/);
     expect(text).toMatch(/± \d/);
     expect(text).toContain('Ingrid Halvorsen'); // the signer
-    expect(text).toContain('seed.run'); // the audit excerpt
+    expect(text).toContain('Loaded a demo run'); // the audit excerpt, in words
+    expect(text).toMatch(/Approved: I (have reviewed|approve)/); // the signature line names the decision in words
     expect(text).toContain('local codes');
     expect(text).toContain(`Page ${pages} of ${pages}`);
     const event = await lastEvent('run.report');

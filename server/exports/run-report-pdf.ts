@@ -1,6 +1,7 @@
 import type { SessionPerson } from '../core/session';
 import { drawPvDiagram } from './pv-diagram';
 import { COLOURS, ensureSpace, keyValues, newPdf, pdfText, pdfToFile, sectionTitle, stampPages, table, type Pdf } from './pdf-layout';
+import { actionLabel } from '../audit/audit-readable';
 import { storedWhy } from '../balance/balance-response';
 import { formatMeasurement, percent, sig, verdictWords } from './report-format';
 import type { RunReportData } from './run-report-data';
@@ -41,7 +42,7 @@ function titleBlock(doc: Pdf, d: RunReportData, by: SessionPerson, at: Date): vo
     ['Run date', r.runDate],
     ['Author', d.authorName],
     ['Project', d.project],
-    ['State', `${r.state} (version ${r.version})${r.revisionReason ? `; revision reason: ${r.revisionReason}` : ''}${r.returnReason ? `; returned: ${r.returnReason}` : ''}`],
+    ['State', `${STATE_WORDS[r.state] ?? r.state} (version ${r.version})${r.revisionReason ? `; revision reason: ${r.revisionReason}` : ''}${r.returnReason ? `; returned: ${r.returnReason}` : ''}`],
     ['Apparatus', d.apparatus],
     ['Lab', d.lab],
     ['Report generated', `${at.toISOString()} by ${by.name} <${by.email}>`],
@@ -155,6 +156,9 @@ function flags(doc: Pdf, d: RunReportData): void {
   }
 }
 
+const STATE_WORDS: Record<string, string> = { draft: 'Draft', submitted: 'Submitted', approved: 'Approved', returned: 'Returned for correction', rejected: 'Rejected' };
+const SIGNED_WORDS: Record<string, string> = { approve: 'Approved', return: 'Returned for correction', reject: 'Rejected' };
+
 function signed(doc: Pdf, d: RunReportData): void {
   sectionTitle(doc, 'Signatures');
   if (d.signatures.length === 0) {
@@ -162,13 +166,13 @@ function signed(doc: Pdf, d: RunReportData): void {
     return;
   }
   table(doc, [{ title: 'signer', width: 90 }, { title: 'meaning', width: 150 }, { title: 'signed at (UTC)', width: 80 }, { title: 'SHA-256 of what was signed', width: 179, font: 'Courier' }],
-    d.signatures.map((s) => [s.signerName, `${s.action}: ${s.meaning}${s.reason ? ` (${s.reason})` : ''}`, s.signedAt.toISOString().replace('T', ' ').slice(0, 19), s.signedHash]), 7.5);
+    d.signatures.map((s) => [s.signerName, `${SIGNED_WORDS[s.action] ?? s.action}: ${s.meaning}${s.reason ? ` (${s.reason})` : ''}`, s.signedAt.toISOString().replace('T', ' ').slice(0, 19), s.signedHash]), 7.5);
 }
 
 function history(doc: Pdf, d: RunReportData): void {
   sectionTitle(doc, 'Audit excerpt: the history of this run and its revisions');
   table(doc, [{ title: 'event', width: 38 }, { title: 'when (UTC)', width: 80 }, { title: 'who', width: 110 }, { title: 'action', width: 95 }, { title: 'run id', width: 36 }, { title: 'reason', width: 140 }],
-    d.history.map((e) => [String(e.id), e.occurredAt.toISOString().replace('T', ' ').slice(0, 19), e.actorName ?? e.actorEmail ?? '(system)', e.action, e.entityId ?? '', e.reason ?? '']), 7.5);
+    d.history.map((e) => [String(e.id), e.occurredAt.toISOString().replace('T', ' ').slice(0, 19), e.actorName ?? e.actorEmail ?? 'Qwell (system)', actionLabel(e.action), e.entityId ?? '', e.reason ?? '']), 7.5);
 }
 
 /** The printable run report; returns its page count. */

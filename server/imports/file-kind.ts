@@ -47,7 +47,7 @@ export function detectKind(filename: string, buf: Buffer): FileKind {
       if (buf.includes(ENCRYPTED_PACKAGE)) {
         throw unreadableFile(`"${filename}" is a password-protected workbook. Remove the password in your spreadsheet program (save a copy without protection) and upload that copy.`);
       }
-      throw unsupportedFile(`"${filename}" is named .xlsx but holds an old-format (.xls) workbook. Save it as .xlsx (Excel Workbook) and upload it again.`);
+      throw unsupportedFile(`"${filename}" is named .xlsx but holds an old-format (.xls) workbook. Save it as a workbook (.xlsx) and upload it again.`);
     }
     if (buf.subarray(0, 4).equals(EMPTY_ZIP)) throw emptyFile(`"${filename}" is an empty archive with no workbook in it.`);
     if (!isZip) {
@@ -68,7 +68,7 @@ export function detectKind(filename: string, buf: Buffer): FileKind {
     return 'csv';
   }
   if (ext === 'xls') {
-    throw unsupportedFile(`"${filename}" is an old-format (.xls) workbook. Save it as .xlsx (Excel Workbook) or export it as CSV, then upload it again.`);
+    throw unsupportedFile(`"${filename}" is an old-format (.xls) workbook. Save it as a workbook (.xlsx) or export it as CSV, then upload it again.`);
   }
   throw unsupportedFile(`"${filename}" is not a spreadsheet Qwell reads${describe(buf) ? ` (it is ${describe(buf)})` : ''}. Upload a .xlsx workbook or a .csv file exported from the logger.`);
 }

@@ -12,7 +12,7 @@ import { navigationFor } from './navigation';
 const EXPECTED: Record<Role, string[]> = {
   technician: ['Home', 'Runs', 'New run', 'Import', 'Instruments', 'Apparatus', 'Gases'],
   assistant: ['Home', 'Runs', 'New run', 'Import', 'Instruments', 'Apparatus', 'Gases'],
-  investigator: ['Home', 'Runs', 'Instruments', 'Apparatus', 'Gases', 'Audit trail'],
+  investigator: ['Home', 'Runs', 'New run', 'Import', 'Instruments', 'Apparatus', 'Gases', 'Audit trail'],
   quality: ['Home', 'Runs', 'Instruments', 'Apparatus', 'Gases', 'Audit trail'],
   admin: ['Home', 'Instruments', 'Apparatus', 'Gases', 'People', 'Projects'],
 };

@@ -17,6 +17,10 @@ export class Forbidden {
   private readonly auth = inject(Auth);
   protected readonly roleLabel = computed(() => {
     const role = this.auth.role();
-    return role ? ROLE_LABELS[role] : 'your role';
+    if (!role) {
+      return 'your role';
+    }
+    const label = ROLE_LABELS[role].toLowerCase();
+    return `${/^[aeiou]/.test(label) ? 'an' : 'a'} ${label}`;
   });
 }

@@ -9,7 +9,7 @@ export interface PersonRecord {
   email: string;
   name: string;
   role: Role;
-  /** false once the account has been switched off; history stays. */
+  /** false once the account has been deactivated; history stays. */
   active: boolean;
   /** ISO timestamp until which sign-in is refused after failed attempts; null when not locked. */
   lockedUntil: string | null;

@@ -15,7 +15,7 @@ function instrument(id: number, tag: string, status: 'valid' | 'due-soon' | 'exp
     tag,
     name: `Instrument ${tag}`,
     kind: 'pressure',
-    manufacturer: 'Kestrel Gauges',
+    manufacturer: 'Harrowgate instrument workshop',
     serialNumber: `SN-${id}`,
     rangeMin: 0,
     rangeMax: 1000,

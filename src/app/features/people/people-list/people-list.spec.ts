@@ -63,7 +63,7 @@ describe('PeopleList', () => {
     expect(unlockButtons()).toEqual(['Unlock Lee Park']);
     expect(rowOf('Lee Park').textContent).toContain('Locked until');
     expect(rowOf('Mo Chen').textContent).toContain('Open');
-    expect(rowOf('Ola Berg').textContent).toContain('Switched off');
+    expect(rowOf('Ola Berg').textContent).toContain('Deactivated');
   });
 
   it('unlocks with { unlock: true } and shows the list again as the server has it', async () => {

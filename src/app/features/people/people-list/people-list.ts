@@ -74,7 +74,7 @@ export class PeopleList {
   }
 
   protected switchOff(person: PersonRecord): void {
-    this.change(person, { active: false }, `${person.name}'s account is switched off.`);
+    this.change(person, { active: false }, `${person.name}'s account is deactivated.`);
   }
 
   protected switchOn(person: PersonRecord): void {

@@ -9,7 +9,7 @@ const encoder: Instrument = {
   tag: 'LD-3',
   name: 'Displacement encoder',
   kind: 'displacement',
-  manufacturer: 'Tarn Motion',
+  manufacturer: 'Harrowgate mechanical workshop',
   serialNumber: 'TM-1180',
   rangeMin: 0,
   rangeMax: 200,
