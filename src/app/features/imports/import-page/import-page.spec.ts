@@ -42,6 +42,12 @@ describe('ImportPage', () => {
     await date!.setValue('2026-03-14');
     const el = fixture.nativeElement as HTMLElement;
     const importButton = () => Array.from(el.querySelectorAll('button')).find((b) => b.textContent?.includes('Import'))!;
+    // The process has no default: a run whose temperature rises must not be claimed isothermal unasked.
+    expect(importButton().disabled).toBe(true);
+    expect(el.textContent).toContain('Choose the process the run claims');
+    const process = await (await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Process' }))).getControl(MatSelectHarness);
+    await process!.open();
+    await process!.clickOptions({ text: 'isothermal' });
     return { fixture, el, importButton };
   }
 

@@ -16,6 +16,7 @@ import { ImportMappingStep } from '../import-mapping-step/import-mapping-step';
 import { ImportUpload } from '../import-upload/import-upload';
 import { ImportsApi } from '../imports-api';
 import { CommitTarget, DraftOption, ImportMapping, ImportPreview, ProjectOption, RowError } from '../imports.models';
+import { RUN_STATE_LABELS } from '../../runs/runs.models';
 
 const PROCESSES = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric'] as const;
 
@@ -34,12 +35,14 @@ export class ImportPage {
   private readonly announcer = inject(LiveAnnouncer);
 
   protected readonly processes = PROCESSES;
+  protected readonly stateLabels: Readonly<Record<string, string>> = RUN_STATE_LABELS;
   protected readonly preview = signal<ImportPreview | null>(null);
   protected readonly mapping = signal<ImportMapping | null>(null);
   protected readonly targetKind = signal<'new' | 'existing'>('new');
   protected readonly projectId = signal<number | null>(null);
   protected readonly title = signal('');
-  protected readonly process = signal<string>('isothermal');
+  /** Chosen by the person: no default, since a wrong process claim changes the model work and the flags. */
+  protected readonly process = signal<string>('');
   protected readonly runDate = signal(new Date().toISOString().slice(0, 10));
   protected readonly runId = signal<number | null>(null);
   protected readonly importing = signal(false);
@@ -55,6 +58,7 @@ export class ImportPage {
     if (this.targetKind() === 'existing') return this.runId() ? null : 'Choose the draft whose readings the file replaces.';
     if (!this.projectId()) return 'Choose the project of the new draft.';
     if (this.title().trim().length < 3) return 'Give the new draft a title of at least 3 characters.';
+    if (!this.process()) return 'Choose the process the run claims (isobaric, isothermal, …).';
     if (!/^\d{4}-\d{2}-\d{2}$/.test(this.runDate())) return 'Give the run date.';
     return null;
   });
