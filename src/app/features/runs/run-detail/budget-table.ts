@@ -9,7 +9,7 @@ import { BudgetEntry } from '../runs.models';
   selector: 'qw-budget-table',
   imports: [DecimalPipe, MatTableModule],
   template: `
-    <div class="table-scroll">
+    <div class="table-scroll" tabindex="0" role="region" aria-label="Uncertainty budget, scrolls sideways on narrow screens">
       <table mat-table [dataSource]="rows()" aria-label="Uncertainty budget of the residual r">
         <ng-container matColumnDef="source">
           <th mat-header-cell *matHeaderCellDef>Source</th>

@@ -1,0 +1,156 @@
+import type { Page } from 'playwright-core';
+import type { Role } from '../db/schema';
+import { loadFixture, runBodies } from '../server/testing/fixture-runs';
+import { seriousViolations } from './support/axe';
+import { openBrowser, screenshot, type Session } from './support/browser';
+import { signInAs } from './support/sign-in';
+
+// Per role: the verdict appearing without a reload, the why-sentence, a readable audit row, the import
+// checklist, and an axe-core check with no serious violations on each main screen the role opens.
+
+let s: Session;
+beforeEach(async () => {
+  s = await openBrowser();
+});
+afterEach(async () => {
+  await s.close();
+});
+
+/** The API as the signed-in page: same cookies, and the CSRF header the app's HttpClient would send. */
+async function api(method: 'GET' | 'POST' | 'PUT', path: string, body?: unknown, multipart?: Record<string, unknown>) {
+  const xsrf = (await s.context.cookies()).find((c) => c.name === 'XSRF-TOKEN')?.value ?? '';
+  const res = await s.context.request.fetch(path, { method, headers: { 'X-XSRF-TOKEN': xsrf }, data: body, multipart: multipart as never });
+  const json = await res.json().catch(() => null);
+  if (!res.ok()) throw new Error(`${method} ${path} answered ${res.status()}: ${JSON.stringify(json)}`);
+  return json;
+}
+
+async function projectId(code: string): Promise<number> {
+  const body = await api('GET', '/api/projects');
+  return (body.items as { id: number; code: string }[]).find((p) => p.code === code)!.id;
+}
+
+/** A draft from a demo run document, created through the API as the signed-in author. */
+async function draftFrom(fixture: string, title: string): Promise<{ id: number; code: string }> {
+  const bodies = runBodies(loadFixture(fixture), await projectId('GX'));
+  const created = await api('POST', '/api/runs', { ...bodies.create, title });
+  await api('PUT', `/api/runs/${created.id}/readings`, { version: created.version, ...bodies.readings });
+  return { id: created.id, code: created.code };
+}
+
+/** axe-core on the current screen at 1366 and 390 px, with a screenshot of each. */
+async function checkScreen(page: Page, name: string): Promise<void> {
+  for (const width of [1366, 390]) {
+    await page.setViewportSize({ width, height: width === 390 ? 844 : 900 });
+    await page.getByRole('heading', { level: 1 }).first().waitFor();
+    const violations = await seriousViolations(page);
+    expect({ screen: name, width, violations }).toEqual({ screen: name, width, violations: [] });
+    await screenshot(page, `${name}-${width}`);
+  }
+  await page.setViewportSize({ width: 1366, height: 900 });
+}
+
+describe('a technician', () => {
+  it('submits a run and sees its verdict and why arrive without a reload', async () => {
+    const { page } = s;
+    await signInAs(page, 'technician');
+    await checkScreen(page, 'home-technician');
+    const run = await draftFrom('calorimetric-heat-leak-forgotten', `Bath run, heat leak left out, e2e ${Date.now()}`);
+    await page.goto(`/runs/${run.id}/edit`);
+    await page.getByRole('heading', { level: 2, name: 'Ready to submit' }).waitFor({ timeout: 20_000 });
+    await checkScreen(page, 'run-entry-ready');
+    await page.getByRole('button', { name: 'Submit for the balance check' }).click();
+    await page.waitForURL(new RegExp(`/runs/${run.id}$`), { timeout: 20_000 });
+    // No reload from here: the page asks again by itself until the check has stored its result.
+    const card = page.locator('qw-balance-card');
+    await card.getByText('Breaks').first().waitFor({ timeout: 45_000 });
+    const why = card.locator('.why');
+    expect(await why.textContent()).toMatch(/Why: No heat leak was accounted for: a heat-loss coefficient h ≈ [\d.]+ W\/K would close the balance\./);
+    await checkScreen(page, 'run-page-breaks');
+    await page.goto('/runs');
+    await checkScreen(page, 'runs-list-technician');
+  });
+});
+
+describe('a student assistant', () => {
+  it('imports a logger file into a new draft and sees what is still missing', async () => {
+    const { page } = s;
+    await signInAs(page, 'assistant');
+    await page.goto('/imports');
+    await checkScreen(page, 'import-assistant');
+    const csv = ['time_s,pressure_kPa,temperature_C', '0,101.3,21.0', '10,101.4,23.5', '20,101.3,26.1', '30,101.4,28.4'].join('\n');
+    const preview = await api('POST', '/api/imports', undefined, { file: { name: 'bath-logger.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) } });
+    const committed = await api('POST', `/api/imports/${preview.importId}/commit`, {
+      mapping: { time: { index: 0, unit: 's' }, columns: [{ index: 1, channel: 'pressure', unit: 'kPa', reference: 'absolute' }, { index: 2, channel: 'temperature', unit: 'degC' }] },
+      target: { newRun: { projectId: await projectId('GX'), title: `Logger import, e2e ${Date.now()}`, process: 'isobaric', runDate: '2026-03-14' } },
+    });
+    await page.goto(`/runs/${committed.runId}/edit`);
+    const checklist = page.getByRole('region', { name: 'Still missing before you submit' });
+    await checklist.waitFor({ timeout: 20_000 });
+    // The gas was never chosen: the checklist says so in the form's words, without engine field paths.
+    await checklist.getByText('Choose the gas, or an apparatus with a measured heat capacity for a calorimeter run.').waitFor();
+    expect(await checklist.textContent()).not.toMatch(/gas\.model|"calorimeter"/);
+    await checkScreen(page, 'import-checklist');
+  });
+});
+
+describe('an investigator', () => {
+  it('reads the why of a breaking demo run and its history in the audit trail by run code', async () => {
+    const { page } = s;
+    await signInAs(page, 'investigator');
+    await page.goto('/runs?verdict=breaks');
+    await checkScreen(page, 'runs-breaks-investigator');
+    await page.getByRole('link', { name: /^R-2026-/ }).first().click();
+    await page.locator('qw-balance-card .why').waitFor({ timeout: 20_000 });
+    expect(await page.locator('qw-balance-card .why').textContent()).toMatch(/^\s*\w+\s*Why: \S/);
+    await checkScreen(page, 'run-page-investigator-why');
+    const code = (await page.locator('h1 .code').textContent())!.trim();
+    await page.goto(`/audit?run=${code}`);
+    await page.getByRole('cell', { name: 'Loaded a demo run' }).first().waitFor({ timeout: 20_000 });
+    expect(await page.getByRole('cell', { name: new RegExp(`Run ${code} rev\\. 1`) }).count()).toBeGreaterThan(0);
+    await checkScreen(page, 'audit-by-run-investigator');
+  });
+});
+
+describe('a quality officer', () => {
+  it('reads audit rows in plain words, names and field-by-field changes, without the sign-ins', async () => {
+    const { page } = s;
+    await signInAs(page, 'quality');
+    await page.goto('/audit?hideSignIns=true&entityType=run');
+    const rows = page.locator('tr.mat-mdc-row:not(.detail-row)');
+    await rows.first().waitFor({ timeout: 20_000 });
+    expect(await page.getByRole('cell', { name: 'Signed in' }).count()).toBe(0);
+    const created = rows.filter({ hasText: 'Created the run' }).first();
+    await created.waitFor();
+    expect(await created.textContent()).toMatch(/Lena Okonkwo|Mateo Brandt/);
+    await created.getByRole('button', { name: /Show what event \d+ changed/ }).click();
+    const changes = page.locator('table.changes').first();
+    await changes.waitFor();
+    expect(await changes.getByRole('rowheader', { name: 'state' }).count()).toBe(1);
+    expect(await changes.textContent()).toContain('Draft');
+    await checkScreen(page, 'audit-readable-quality');
+    for (const [path, name] of [['/home', 'home-quality'], ['/instruments', 'instruments-quality'], ['/apparatus', 'apparatus-quality']] as const) {
+      await page.goto(path);
+      await checkScreen(page, name);
+    }
+  });
+});
+
+describe('an administrator', () => {
+  it.each([
+    ['/people', 'people-admin'],
+    ['/projects', 'projects-admin'],
+    ['/gases', 'gases-admin'],
+  ] as const)('%s has no serious accessibility violations', async (path, name) => {
+    await signInAs(s.page, 'admin' as Role);
+    await s.page.goto(path);
+    await checkScreen(s.page, name);
+  });
+});
+
+describe('signed out', () => {
+  it('the sign-in page has no serious accessibility violations', async () => {
+    await s.page.goto('/sign-in');
+    await checkScreen(s.page, 'sign-in');
+  });
+});
