@@ -35,6 +35,8 @@ export interface Config {
   worker: boolean;
   /** Name of the lab, written into run documents. */
   labName: string;
+  /** The address people open Qwell at, for links in e-mails (QWELL_PUBLIC_URL). */
+  publicUrl: string;
 }
 
 export const projectRoot = resolve(__dirname, '..');
@@ -100,6 +102,7 @@ export function loadConfig(overrides: Partial<Config> = {}): Config {
     balance: balanceSettingsFromEnv(),
     worker: process.env['QWELL_WORKER'] !== '0',
     labName: process.env['QWELL_LAB_NAME'] ?? DEMO_INSTITUTION,
+    publicUrl: process.env['QWELL_PUBLIC_URL'] || `http://${process.env['HOST'] ?? '127.0.0.1'}:${int('PORT', 3000)}`,
     ...overrides,
   };
 }

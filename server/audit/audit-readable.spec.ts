@@ -26,6 +26,11 @@ describe('the audit trail in plain words', () => {
     expect(changesText(changes)).toBe('ambient pressure: 101.42 kPa (u = 0.03); instruments: PG-5, TC-7');
   });
 
+  it('reads a small object as its fields, not as JSON', () => {
+    expect(changesText(fieldChanges(null, { setup: { channels: { pressure: { unit: 'kPa', reference: 'absolute' } } } })))
+      .toBe('setup channels pressure: unit kPa, reference absolute');
+  });
+
   it('reads a list of problems as its messages, not as JSON', () => {
     const changes = fieldChanges({ state: 'submitted' }, { state: 'returned', errors: [{ path: 'gas.species', message: 'Choose the gas.' }, { path: 'amount', message: 'Give the amount of gas.' }] });
     expect(changes[1]).toEqual({ field: 'errors', before: null, after: 'Choose the gas.; Give the amount of gas.' });

@@ -91,7 +91,8 @@ export function valueText(path: string, value: unknown): string {
     if (value.length && messages.every((m) => m !== null)) return messages.join('; ');
     return value.map((v) => (typeof v === 'object' ? JSON.stringify(v) : String(v))).join(', ');
   }
-  return JSON.stringify(value);
+  // A small object reads as its fields: "unit kPa, reference absolute".
+  return Object.entries(value as Record<string, unknown>).map(([k, v]) => `${fieldLabel(k)} ${typeof v === 'object' && v !== null ? JSON.stringify(v) : valueText(k, v)}`).join(', ');
 }
 
 /** One field that an event changed (or set, or cleared). */

@@ -7,6 +7,8 @@ import { checkRunDocument } from '../engine';
 import { projectAddresses, queueMail } from '../mail/outbox';
 import { loadRunDocument } from '../runs/run-loader';
 import { runStandardization } from '../standardizations/standardization-pin';
+import { runLink } from '../mail/run-link';
+import { plainProblem } from '../runs/submit-checklist';
 import { whySentence } from './why-sentence';
 
 export type CheckOutcome = 'stored' | 'stale' | 'invalid';
@@ -32,7 +34,12 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
       const reason = `The balance check could not read the run: ${checked.errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`;
       await tx.update(runs).set({ state: 'returned', returnReason: reason.slice(0, 2000), version: locked.version + 1, updatedAt: sql`now()` }).where(eq(runs.id, runId));
       await recordAudit(tx, { action: 'run.check-failed', entityType: 'run', entityId: runId, before: { state: 'submitted' }, after: { state: 'returned', errors: checked.errors }, reason: 'the engine could not read the run' });
-      await queueMail(tx, [{ to: author.email, subject: `Run ${locked.code}: the balance check could not run`, body: checked.errors.map((e) => `${e.path}: ${e.message}`).join('\n') }]);
+      const hasGas = Boolean((locked.setup as { gas?: unknown } | null)?.gas || locked.gasId);
+      const problems = checked.errors.map((e) => `- ${plainProblem(e.path, e.message, hasGas, doc.readings.time?.values?.length ?? 0).message}`);
+      await queueMail(tx, [{
+        to: author.email, subject: `Run ${locked.code}: the balance check could not run`,
+        body: `The balance check could not read run ${locked.code} "${locked.title}", so it is back with you for correction:\n${problems.join('\n')}\nOpen the run: ${runLink(config.publicUrl, runId)}`,
+      }]);
       return 'invalid';
     }
     const pin = await runStandardization(tx, locked.apparatusId, locked.runDate);
@@ -49,7 +56,7 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
     });
     if (result.verdict === 'breaks') {
       const investigators = await projectAddresses(tx, locked.projectId, 'investigator');
-      const body = `Run ${locked.code} "${locked.title}" does not close its energy balance: En = ${result.En?.toFixed(2)} (> 1).\nr = ΔU − (Q − W) = ${result.residual.r.toPrecision(4)} J, U(r) = ${result.residual.U.toPrecision(2)} J (k = ${result.residual.k}).\nWhy: ${whySentence(result)}\nOpen the run in Qwell to see the flags and hints.`;
+      const body = `Run ${locked.code} "${locked.title}" does not close its energy balance: En = ${result.En?.toFixed(2)} (> 1).\nr = ΔU − (Q − W) = ${result.residual.r.toPrecision(4)} J, U(r) = ${result.residual.U.toPrecision(2)} J (k = ${result.residual.k}).\nWhy: ${whySentence(result)}\nOpen the run to see the flags and hints: ${runLink(config.publicUrl, runId)}`;
       await queueMail(tx, [...new Set([...investigators, author.email])].map((to) => ({ to, subject: `Run ${locked.code}: the energy balance breaks`, body })));
     }
     return 'stored';

@@ -51,7 +51,9 @@ export class HomeService {
     const submitted = await this.countRuns(eq(runs.state, 'submitted'));
     return [
       { key: 'calibrations-due', label: 'Calibrations due within 30 days', count: tally('due-soon'), link: '/instruments', queryParams: { status: 'due-soon' } },
-      { key: 'out-of-calibration', label: 'Instruments out of calibration', count: tally('expired') + tally('none'), link: '/instruments', queryParams: { status: 'expired' } },
+      // Each tile counts exactly what its link lists: overdue calibrations and never-calibrated instruments are two lists.
+      { key: 'out-of-calibration', label: 'Instruments out of calibration', count: tally('expired'), link: '/instruments', queryParams: { status: 'expired' } },
+      { key: 'never-calibrated', label: 'Instruments with no calibration', count: tally('none'), link: '/instruments', queryParams: { status: 'none' } },
       { key: 'runs-waiting', label: 'Runs waiting for review', count: submitted, link: '/runs', queryParams: { state: 'submitted' } },
     ];
   }

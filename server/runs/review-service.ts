@@ -5,6 +5,7 @@ import { recordAudit } from '../audit/audit-service';
 import { badRequest, conflict } from '../core/problem';
 import type { SessionPerson } from '../core/session';
 import { queueMail } from '../mail/outbox';
+import { runLink } from '../mail/run-link';
 import { loadRunFor } from './run-access';
 import { loadReadings } from './run-loader';
 import { approvalMeanings, rejectionMeanings, returnMeanings, type ReviewAction, type SignatureDto } from './review-dto';
@@ -19,7 +20,7 @@ export const MIN_JUSTIFICATION = 20;
 const pastTense: Record<ReviewAction, string> = { approve: 'approved', return: 'returned for correction', reject: 'rejected' };
 
 export class ReviewService {
-  constructor(private readonly db: Database) {}
+  constructor(private readonly db: Database, private readonly publicUrl = '') {}
 
   /**
    * Approve, return or reject with an electronic signature: the password again, the meaning, and for
@@ -62,7 +63,7 @@ export class ReviewService {
       await queueMail(tx, [{
         to: author.email,
         subject: `Run ${run.code} ${pastTense[action]}`,
-        body: `${person.name} ${pastTense[action]} run ${run.code} "${run.title}".${reason ? `\nReason: ${reason}` : ''}\nSignature: ${body.meaning} (SHA-256 ${hash}).`,
+        body: `${person.name} ${pastTense[action]} run ${run.code} "${run.title}".${reason ? `\nReason: ${reason}` : ''}\nSignature: ${body.meaning} (SHA-256 ${hash}).${this.publicUrl ? `\nOpen the run: ${runLink(this.publicUrl, id)}` : ''}`,
       }]);
       return { run: after, signature };
     });

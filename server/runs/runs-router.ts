@@ -20,7 +20,7 @@ const AUTHORS = ['technician', 'assistant', 'investigator'] as const;
 
 export function runsRouter(db: Database, config: Config, queue: JobQueue | null): Router {
   const service = new RunsService(db, config, queue);
-  const review = new ReviewService(db);
+  const review = new ReviewService(db, config.publicUrl);
   // The list and the stored results are read far more often than runs change.
   const reads = new ReadCache(2000, config.readCache);
   const router = Router();

@@ -14,6 +14,7 @@ import { parseReadingsInput, readingsToRows, type ReadingRow } from './run-docum
 import { loadReadings, loadRunDocument } from './run-loader';
 import type { RunSetup } from './run-setup';
 import { submitProblems } from './submit-checklist';
+import { runLink } from '../mail/run-link';
 import type { CreateRunDto, ReplaceReadingsDto, RunListQuery, UpdateRunDto } from './runs-dto';
 
 /** Projects whose runs a person may see; null means every project (quality officers). */
@@ -221,7 +222,7 @@ export class RunsService {
       const investigators = await projectAddresses(tx, after.projectId, 'investigator');
       await queueMail(tx, investigators.filter((e) => e !== person.email).map((to) => ({
         to, subject: `Run ${after.code} submitted for review`,
-        body: `${person.name} submitted run ${after.code} "${after.title}" (${after.process}, ${after.runDate}).\nThe energy-balance check is running; open the run in Qwell to review it.`,
+        body: `${person.name} submitted run ${after.code} "${after.title}" (${after.process}, ${after.runDate}).\nThe energy-balance check is running; open the run to review it once it has finished: ${runLink(this.config.publicUrl, after.id)}`,
       })));
       return after;
     });

@@ -77,6 +77,8 @@ describe('a run from draft to approved', () => {
     expect(submitMail).toContain(`X-Qwell-Envelope-To: ${demoEmail('investigator')}`);
     const approvalMail = mails.find((m) => m.includes(`Run ${run.code} approved`))!;
     expect(approvalMail).toContain(`X-Qwell-Envelope-To: ${demoEmail('technician')}`);
+    // Plain words and a link to the run at the lab's public address.
+    expect(approvalMail).toContain(`/runs/${run.id}`);
   });
 
   it('locks an approved run; a correction makes a new revision and leaves the old one readable', async () => {
@@ -123,6 +125,8 @@ describe('review rules', () => {
     expect(justified.status).toBe(200);
     const [breakMail] = await h.handle.db.select().from(mailOutbox).where(eq(mailOutbox.subject, `Run ${run.code}: the energy balance breaks`));
     expect(breakMail.recipient).toBe(demoEmail('investigator'));
+    expect(breakMail.body).toContain(`Why: ${stored.why}`);
+    expect(breakMail.body).toMatch(new RegExp(`Open the run to see the flags and hints: http://\\S+/runs/${run.id}$`));
   });
 
   it('requires a written justification to approve an indeterminate check, and says why it is indeterminate', async () => {

@@ -58,7 +58,8 @@ function pathWords(path: string): string {
 }
 
 function sentence(text: string): string {
-  return /[.!?]$/.test(text) ? text : `${text}.`;
+  const article = text.replace(/\ba (?=[aeiou])/g, 'an ');
+  return /[.!?]$/.test(article) ? article : `${article}.`;
 }
 
 /** The problems that would stop a submit, de-duplicated by what they say. */

@@ -23,6 +23,9 @@ const QUEUE_ICONS: Readonly<Record<string, string>> = {
   flagged: 'flag',
   'calibrations-due': 'event_upcoming',
   'out-of-calibration': 'event_busy',
+  'never-calibrated': 'help',
+  'waiting-for-review': 'hourglass_top',
+  'runs-waiting': 'hourglass_top',
   people: 'group',
   'locked-accounts': 'lock_person',
 };
