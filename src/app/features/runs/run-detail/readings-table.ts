@@ -29,7 +29,7 @@ const ROW_HEIGHT = 32;
           <span role="columnheader">{{ column.label }} ({{ column.unit }})</span>
         }
       </div>
-      <cdk-virtual-scroll-viewport [itemSize]="rowHeight" class="viewport" tabindex="0" aria-label="Readings, scroll for more">
+      <cdk-virtual-scroll-viewport [itemSize]="rowHeight" class="viewport" role="rowgroup" tabindex="0" aria-label="Readings, scroll for more">
         <div
           *cdkVirtualFor="let index of indexes(); trackBy: trackIndex"
           class="row"
