@@ -106,7 +106,7 @@ export function inspectWorkbook(buf: Buffer, limits: ImportLimits): WorkbookInsp
   }
   const names = new Set(entries.map((e) => e.name));
   if (!names.has('xl/workbook.xml')) {
-    throw unsupportedFile('The file is a ZIP archive but not an Excel workbook (it has no xl/workbook.xml). Upload a .xlsx or a .csv file.');
+    throw unsupportedFile('The file is a ZIP archive but not a workbook (.xlsx) (it has no xl/workbook.xml). Upload a .xlsx or a .csv file.');
   }
   const files = new Map<string, Buffer>();
   let expandedBytes = 0;

@@ -27,6 +27,7 @@ const matrix: Record<string, Who[] | 'public'> = {
   'POST /api/runs/:id/submit': authors,
   'GET /api/runs/:id/balance': readers,
   'GET /api/runs/:id/history': readers,
+  'GET /api/runs/:id/checklist': readers,
   'GET /api/runs/:id/document': readers,
   'POST /api/runs/:id/revisions': authors,
   'POST /api/runs/:id/:action': ['investigator'],
