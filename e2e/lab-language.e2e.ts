@@ -106,7 +106,7 @@ describe('an investigator', () => {
     await checkScreen(page, 'run-page-investigator-why');
     const code = (await page.locator('h1 .code').textContent())!.trim();
     await page.goto(`/audit?run=${code}`);
-    await page.getByRole('cell', { name: 'Loaded a demo run' }).first().waitFor({ timeout: 20_000 });
+    await page.getByRole('cell', { name: 'Checked the energy balance' }).first().waitFor({ timeout: 20_000 });
     expect(await page.getByRole('cell', { name: new RegExp(`Run ${code} rev\\. 1`) }).count()).toBeGreaterThan(0);
     await checkScreen(page, 'audit-by-run-investigator');
   });
