@@ -210,7 +210,7 @@ export class RunsService {
         throw badRequest(`Run ${before.code} is not complete enough to check: ${missing.length === 1 ? 'one thing is' : `${missing.length} things are`} still missing. Nothing was changed.`,
           missing.map((e) => ({ field: e.field, label: e.label, message: e.message })));
       }
-      const unstated = channelsWithoutInstrument(valid.doc);
+      const unstated = channelsWithoutInstrument(await loadRunDocument(tx, before, this.config.labName));
       if (unstated.length > 0) {
         throw badRequest(`Run ${before.code} has ${unstated.length} channel(s) with no instrument, whose readings would add no uncertainty: choose the instrument that read each. Nothing was changed.`,
           unstated.map((name) => ({ field: `readings.${name}.instrument`, message: `the ${name} channel names no instrument; choose the one that read it so its uncertainty enters the budget` })));
