@@ -13,6 +13,8 @@ import { ImportPreview } from '../imports.models';
 import { ImportPage } from './import-page';
 
 describe('ImportPage', () => {
+  // The preview, mapping and target steps are driven through harnesses; on a busy machine that can pass 5 s.
+  jest.setTimeout(20_000);
   let httpTesting: HttpTestingController;
 
   beforeEach(() => {

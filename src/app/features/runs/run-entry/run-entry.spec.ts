@@ -10,6 +10,8 @@ import { Auth } from '../../../core/auth/auth';
 import { RunEntry } from './run-entry';
 
 describe('RunEntry page', () => {
+  // Each test drives the whole form through harnesses; on a busy two-core machine that can pass 5 s.
+  jest.setTimeout(20_000);
   let http: HttpTestingController;
   let harness: RouterTestingHarness;
   let root: HTMLElement;
@@ -36,7 +38,10 @@ describe('RunEntry page', () => {
 
   afterEach(() => {
     // The draft's checklist, asked after saves; its own spec checks it.
-    http.match((request) => request.url.endsWith('/checklist')).forEach((request) => request.flush({ complete: true, missing: [] }));
+    http
+      .match((request) => request.url.endsWith('/checklist'))
+      .filter((request) => !request.cancelled)
+      .forEach((request) => request.flush({ complete: true, missing: [] }));
     http.verify();
   });
 
