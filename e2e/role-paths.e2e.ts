@@ -35,6 +35,10 @@ describe('a technician at the bench', () => {
     await page.getByLabel('Amount n (mol)').fill('0.01');
     await choose('Apparatus', /PC-3/);
     await page.getByLabel('Ambient temperature', { exact: true }).fill('21');
+    // The barometer is chosen from the register beside the ambient pressure (issue 12).
+    await page.getByRole('heading', { name: 'Apparatus and ambient' }).scrollIntoViewIfNeeded();
+    await page.getByLabel('Barometer').waitFor();
+    await screenshot(page, 'run-entry-ambient');
     for (const name of ['Pressure', 'Volume', 'Temperature']) {
       await page.getByRole('checkbox', { name, exact: true }).focus();
       await k.press('Space');
