@@ -11,6 +11,7 @@ import { authRouter } from './auth/auth-router';
 import type { Config } from './config';
 import { csrfProtection } from './core/csrf';
 import { apiNotFound, errorHandler } from './core/error-handler';
+import { inputHygiene } from './core/input-hygiene';
 import { sessionReader } from './core/session';
 import { healthRouter } from './health/health-router';
 import type { JobQueue } from './jobs/job-queue';
@@ -45,6 +46,8 @@ export function createApp(config: Config, handle: DbHandle, queue: JobQueue | nu
     });
   app.use(cookieParser());
   app.use(express.json({ limit: '20mb' }));
+  // Before any router: NUL and other control characters, bodies nested too deep and prototype keys are refused.
+  app.use('/api', inputHygiene);
 
   app.use('/api/health', healthRouter(handle.sql));
   app.use('/api', csrfProtection(config), sessionReader(config, handle.db));

@@ -4,11 +4,16 @@ import type { Config } from '../config';
 import { HttpProblem } from '../core/problem';
 import { requireRole } from '../core/session';
 import { checkRunDocument } from '../engine';
+import { documentRangeProblems } from './document-ranges';
 
 /** POST /api/balance: a stateless check of a run document; stores nothing. */
 export function balanceRouter(config: Config): Router {
   const router = Router();
   router.post('/', requireRole(...roles), (req, res) => {
+    const outOfRange = documentRangeProblems(req.body);
+    if (outOfRange.length > 0) {
+      throw new HttpProblem(400, 'Invalid run document', `${outOfRange.length} reading(s) are out of range: ${outOfRange.slice(0, 3).map((e) => e.message).join('; ')}`, outOfRange);
+    }
     const checked = checkRunDocument(req.body, config.balance);
     if (!checked.ok) {
       throw new HttpProblem(400, 'Invalid run document',

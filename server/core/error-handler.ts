@@ -15,6 +15,29 @@ function pgCode(err: { code?: unknown; cause?: { code?: unknown } } | undefined)
   return typeof code === 'string' ? code : undefined;
 }
 
+/**
+ * Errors of the driver or the server that mean "the database cannot be reached right now", not "this
+ * request is wrong": refused or dropped connections, timeouts, a server shutting down or starting up.
+ */
+const UNREACHABLE = new Set([
+  'ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'ENOTFOUND', 'EHOSTUNREACH', 'CONNECT_TIMEOUT', 'CONNECTION_CLOSED',
+  'CONNECTION_ENDED', 'CONNECTION_DESTROYED', '57P01', '57P02', '57P03', '53300',
+]);
+
+export function isDatabaseUnreachable(err: unknown): boolean {
+  for (let e = err as { code?: unknown; cause?: unknown; errors?: unknown[] } | undefined, i = 0; e && i < 5; e = e.cause as typeof e, i++) {
+    if (typeof e.code === 'string' && UNREACHABLE.has(e.code)) return true;
+    // Node reports a refused connection to "localhost" on both addresses as an AggregateError.
+    if (Array.isArray(e.errors) && e.errors.some((inner) => isDatabaseUnreachable(inner))) return true;
+  }
+  return false;
+}
+
+/** 503 while PostgreSQL cannot be reached: nothing was changed, and trying again later will work. */
+export const databaseUnavailable = () => new HttpProblem(503, 'Service unavailable',
+  'The database cannot be reached at the moment, so Qwell cannot read or save anything. Nothing was changed; try again in a minute, and tell the lab\'s administrator if it lasts.',
+  undefined, { retryAfter: 30 });
+
 /** The single error handler: every failure leaves as application/problem+json, never a stack trace. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   let problem: HttpProblem;
@@ -34,6 +57,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   } else if (['22007', '22008', '22003', '22P02'].includes(pgCode(err) ?? '')) {
     // A date that does not exist, a number out of range, text where a number belongs.
     problem = new HttpProblem(400, 'Bad request', 'A value is out of range or not of the right kind (a date that does not exist, say); nothing was changed.');
+  } else if (['22021', '22P05'].includes(pgCode(err) ?? '')) {
+    // A character PostgreSQL cannot store (NUL): the input hygiene refuses these first; this is the backstop.
+    problem = new HttpProblem(400, 'Bad request', 'A value contains a character that cannot be stored (a NUL or other control character); nothing was changed.');
+  } else if (isDatabaseUnreachable(err)) {
+    problem = databaseUnavailable();
   } else if (err?.type === 'entity.too.large') {
     problem = new HttpProblem(413, 'Too large', 'The request body is larger than the server accepts.');
   } else {
@@ -46,6 +74,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     );
   }
   if (res.headersSent) return;
+  if (problem.status === 503) res.setHeader('Retry-After', '30');
   res
     .status(problem.status)
     .type('application/problem+json')

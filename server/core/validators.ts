@@ -1,4 +1,5 @@
 import { ValidateBy, ValidateIf, type ValidationOptions } from 'class-validator';
+import { Transform } from 'class-transformer';
 
 const DAY = /^(\d{4})-\d{2}-\d{2}$/;
 
@@ -18,4 +19,12 @@ export function IsCalendarDay(options?: ValidationOptions): PropertyDecorator {
 /** May be left out, but is checked when present, null included: for fields whose column cannot be empty. */
 export function IsOptionalNotNull(): PropertyDecorator {
   return ValidateIf((_object, value) => value !== undefined);
+}
+
+/**
+ * Trims text before the length check, so a value of spaces counts as empty (a title of spaces is
+ * refused, not stored blank). Other types pass through for their own type check.
+ */
+export function Trimmed(): PropertyDecorator {
+  return Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value));
 }

@@ -1,6 +1,6 @@
 import { Type } from 'class-transformer';
 import { IsIn, IsNumber, IsObject, IsOptional, IsString, Length, Matches, Min, ValidateNested } from 'class-validator';
-import { IsCalendarDay } from '../core/validators';
+import { IsCalendarDay, Trimmed } from '../core/validators';
 import { channelKinds, type ChannelKind } from '../../db/schema';
 
 export class InstrumentSpecDto {
@@ -21,7 +21,7 @@ export class CreateInstrumentDto {
   @IsString() @Matches(/^[A-Z0-9][A-Z0-9-]{0,31}$/, { message: 'tag must be the lab\'s tag in capitals, digits and dashes (e.g. PG-4)' })
   tag!: string;
 
-  @IsString() @Length(3, 200, { message: 'name must be 3 to 200 characters' })
+  @Trimmed() @IsString() @Length(3, 200, { message: 'name must be 3 to 200 characters' })
   name!: string;
 
   @IsIn(channelKinds, { message: `kind must be one of ${channelKinds.join(', ')}` })

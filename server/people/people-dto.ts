@@ -1,5 +1,5 @@
 import { IsBoolean, IsEmail, IsIn, IsString, Length } from 'class-validator';
-import { IsOptionalNotNull } from '../core/validators';
+import { IsOptionalNotNull, Trimmed } from '../core/validators';
 import { roles, type Role } from '../../db/schema';
 
 /** ASVS 2.1.1: new passwords are at least 12 characters. */
@@ -9,7 +9,7 @@ export class CreatePersonDto {
   @IsEmail({}, { message: 'email must be an email address' })
   email!: string;
 
-  @IsString() @Length(2, 200, { message: 'name must be 2 to 200 characters' })
+  @Trimmed() @IsString() @Length(2, 200, { message: 'name must be 2 to 200 characters' })
   name!: string;
 
   @IsIn(roles, { message: `role must be one of ${roles.join(', ')}` })
@@ -20,7 +20,7 @@ export class CreatePersonDto {
 }
 
 export class UpdatePersonDto {
-  @IsOptionalNotNull() @IsString() @Length(2, 200, { message: 'name must be 2 to 200 characters' })
+  @IsOptionalNotNull() @Trimmed() @IsString() @Length(2, 200, { message: 'name must be 2 to 200 characters' })
   name?: string;
 
   @IsOptionalNotNull() @IsIn(roles, { message: `role must be one of ${roles.join(', ')}` })

@@ -9,6 +9,13 @@ export type ReadingRow = Omit<InferSelectModel<typeof readings>, 'runId'>;
 type RegisterInstrument = InferSelectModel<typeof instruments> & { calibration: InferSelectModel<typeof calibrations> | null };
 
 const TIME_FACTORS = { ms: 1e-3, s: 1, min: 60, h: 3600 } as const;
+/**
+ * Range checks after conversion to SI: a finite entry can overflow once multiplied (1e306 bar is
+ * 1e311 Pa, which is no number at all), and values past these bounds are no laboratory reading.
+ * 1e15 in SI is far above any channel Qwell records (10¹⁵ Pa, K, m³, V, A, W); a run lasts less than 10¹⁰ s.
+ */
+export const MAX_SI_MAGNITUDE = 1e15;
+export const MAX_SECONDS = 1e10;
 
 /** Readings as people send them: one array per channel, in the channel's own unit. */
 export interface ReadingsInput {
@@ -31,7 +38,11 @@ export function readingsToRows(input: ReadingsInput): { rows: ReadingRow[]; time
     const factor = TIME_FACTORS[input.time.unit];
     seconds = input.time.values.map((v, i) => {
       if (typeof v !== 'number' || !Number.isFinite(v)) errors.push({ field: `time.values[${i}]`, message: `reading ${i + 1}: time must be a number` });
-      return Number(v) * factor;
+      const si = Number(v) * factor;
+      if (typeof v === 'number' && Number.isFinite(v) && !(Math.abs(si) <= MAX_SECONDS)) {
+        errors.push({ field: `time.values[${i}]`, message: `reading ${i + 1}: ${v} ${input.time.unit} is beyond any run's length (at most ${MAX_SECONDS} s)` });
+      }
+      return si;
     });
   }
   const channels: NonNullable<RunSetup['channels']> = {};
@@ -56,7 +67,12 @@ export function readingsToRows(input: ReadingsInput): { rows: ReadingRow[]; time
         errors.push({ field: `${name}.values[${i}]`, message: `reading ${i + 1}: ${name} must be a number, got ${JSON.stringify(v)}` });
         return null;
       }
-      return toSi(kind, channel.unit, v);
+      const si = toSi(kind, channel.unit, v);
+      if (!(Math.abs(si) <= MAX_SI_MAGNITUDE)) {
+        errors.push({ field: `${name}.values[${i}]`, message: `reading ${i + 1}: ${v} ${channel.unit} is beyond any measurable ${name} once converted to SI units` });
+        return null;
+      }
+      return si;
     });
     const { values: _values, ...meta } = channel;
     channels[name] = meta;

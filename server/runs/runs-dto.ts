@@ -1,6 +1,6 @@
 import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsObject, IsOptional, IsString, Length, Max, Min } from 'class-validator';
-import { IsCalendarDay, IsOptionalNotNull } from '../core/validators';
+import { IsCalendarDay, IsOptionalNotNull, Trimmed } from '../core/validators';
 import { processes, runStates, verdicts, type RunState } from '../../db/schema';
 import type { ReadingsInput } from './run-document-mapper';
 import type { RunSetup } from './run-setup';
@@ -49,7 +49,7 @@ export class CreateRunDto {
   @IsInt({ message: 'projectId must be the id of one of your projects' })
   projectId!: number;
 
-  @IsString({ message: 'title must be text' }) @Length(3, 200, { message: 'title must be 3 to 200 characters' })
+  @Trimmed() @IsString({ message: 'title must be text' }) @Length(3, 200, { message: 'title must be 3 to 200 characters' })
   title!: string;
 
   @IsIn(processes, { message: `process must be one of ${processes.join(', ')}` })
@@ -72,7 +72,7 @@ export class UpdateRunDto {
   @IsInt({ message: 'version must be the version of the run you are editing (a whole number)' })
   version!: number;
 
-  @IsOptionalNotNull() @IsString() @Length(3, 200, { message: 'title must be 3 to 200 characters' })
+  @IsOptionalNotNull() @Trimmed() @IsString() @Length(3, 200, { message: 'title must be 3 to 200 characters' })
   title?: string;
 
   @IsOptionalNotNull() @IsIn(processes, { message: `process must be one of ${processes.join(', ')}` })
@@ -108,6 +108,6 @@ export class VersionDto {
 }
 
 export class ReviseDto {
-  @IsString() @Length(5, 2000, { message: 'reason must say why the approved run is corrected (5 to 2000 characters)' })
+  @Trimmed() @IsString() @Length(5, 2000, { message: 'reason must say why the approved run is corrected (5 to 2000 characters)' })
   reason!: string;
 }

@@ -13,6 +13,7 @@ import { isReviewAction, SignatureDto } from './review-dto';
 import { ReviewService } from './review-service';
 import { CreateRunDto, ReplaceReadingsDto, ReviseDto, RunListQuery, UpdateRunDto, VersionDto } from './runs-dto';
 import { RunsService } from './runs-service';
+import { assertValidSetup } from './setup-validation';
 import { countReadings, runChecklist } from './submit-checklist';
 
 const READERS = ['technician', 'assistant', 'investigator', 'quality'] as const;
@@ -31,6 +32,7 @@ export function runsRouter(db: Database, config: Config, queue: JobQueue | null)
 
   router.post('/', requireRole(...AUTHORS), async (req, res) => {
     const body = await validateBody(CreateRunDto, req.body);
+    if (body.setup !== undefined) assertValidSetup(body.setup);
     const run = await service.create(req.person!, body, [], req.ip ?? null);
     res.status(201).location(`/api/runs/${run.id}`).json(run);
   });
@@ -41,6 +43,7 @@ export function runsRouter(db: Database, config: Config, queue: JobQueue | null)
 
   router.patch('/:id', requireRole(...AUTHORS), async (req, res) => {
     const body = await validateBody(UpdateRunDto, req.body);
+    if (body.setup !== undefined) assertValidSetup(body.setup);
     res.json(await service.update(req.person!, idParam(req.params['id'], 'run'), body, req.ip ?? null));
   });
 

@@ -1,0 +1,153 @@
+import { SPECIES } from '../engine/gases';
+import { isIsoDate, isUnit, toSi, type UnitKind } from '../engine/units';
+import { badRequest, type FieldError } from '../core/problem';
+import { CHANNELS, channelNames } from './run-setup';
+
+/** Largest id PostgreSQL's integer column holds; a larger instrumentId could never be read back. */
+const MAX_ID = 2 ** 31 - 1;
+
+const APPARATUS_KINDS: Readonly<Record<string, UnitKind>> = {
+  heatCapacity: 'heatCapacity', heatLossCoefficient: 'conductance', wallUptake: 'energy', ratedPressure: 'pressure',
+  pistonBore: 'length', deadVolume: 'volume', vesselVolume: 'volume',
+};
+const INSTRUMENT_NUMBERS = ['percentOfReading', 'percentOfFullScale', 'fullScale', 'resolution', 'repeatability'];
+const TIME_UNITS = ['s', 'min', 'h', 'iso'];
+
+const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** Collects what is wrong with a setup, field by field (runs.setup: see run-setup.ts). */
+class SetupCheck {
+  readonly errors: FieldError[] = [];
+  add(field: string, message: string) {
+    this.errors.push({ field, message: `${field} ${message}` });
+  }
+  object(v: unknown, field: string, keys: readonly string[]): v is Record<string, unknown> {
+    if (!isObject(v)) {
+      this.add(field, `must be an object with ${keys.join(', ')}`);
+      return false;
+    }
+    for (const key of Object.keys(v)) if (!keys.includes(key)) this.add(`${field}.${key}`, `is not part of ${field}; it holds ${keys.join(', ')}`);
+    return true;
+  }
+  number(v: unknown, field: string, opts: { min?: number; required?: boolean } = {}) {
+    if (v === undefined) {
+      if (opts.required) this.add(field, 'is required');
+      return;
+    }
+    if (typeof v !== 'number' || !Number.isFinite(v)) return this.add(field, `must be a finite number, got ${JSON.stringify(v)}`);
+    if (opts.min !== undefined && v < opts.min) this.add(field, `must be at least ${opts.min}, got ${v}`);
+  }
+  text(v: unknown, field: string, max = 200) {
+    if (v !== undefined && (typeof v !== 'string' || v.length > max)) this.add(field, `must be text of at most ${max} characters`);
+  }
+  quantity(v: unknown, field: string, kind: UnitKind) {
+    if (!this.object(v, field, ['value', 'unit', 'u'])) return;
+    this.number(v['value'], `${field}.value`, { required: true });
+    this.number(v['u'], `${field}.u`, { min: 0 });
+    if (!isUnit(kind, v['unit'])) return this.add(`${field}.unit`, `must be a ${kind} unit, got ${JSON.stringify(v['unit'])}`);
+    if (typeof v['value'] === 'number' && !Number.isFinite(toSi(kind, v['unit'] as string, v['value']))) {
+      this.add(`${field}.value`, `is beyond any measurable ${kind} once converted to SI units`);
+    }
+  }
+}
+
+function checkGas(c: SetupCheck, gas: unknown) {
+  if (!c.object(gas, 'setup.gas', ['model', 'species', 'f'])) return;
+  if (gas['model'] === 'species') {
+    if (!SPECIES.includes(gas['species'] as (typeof SPECIES)[number])) c.add('setup.gas.species', `must be one of ${SPECIES.join(', ')}`);
+  } else if (gas['model'] === 'equipartition') c.number(gas['f'], 'setup.gas.f', { required: true, min: 0 });
+  else if (gas['model'] !== 'calorimeter') c.add('setup.gas.model', 'must be "species", "equipartition" or "calorimeter"');
+}
+
+function checkAmount(c: SetupCheck, amount: unknown) {
+  if (!c.object(amount, 'setup.amount', ['from', 'value', 'u', 'mass', 'molarMass', 'Z', 'uZ'])) return;
+  if (amount['from'] === 'moles') {
+    c.number(amount['value'], 'setup.amount.value', { required: true, min: 0 });
+    c.number(amount['u'], 'setup.amount.u', { min: 0 });
+  } else if (amount['from'] === 'mass') {
+    c.quantity(amount['mass'], 'setup.amount.mass', 'mass');
+    if (amount['molarMass'] !== undefined && c.object(amount['molarMass'], 'setup.amount.molarMass', ['value', 'u'])) {
+      c.number((amount['molarMass'] as Record<string, unknown>)['value'], 'setup.amount.molarMass.value', { required: true, min: 0 });
+    }
+  } else if (amount['from'] === 'initialState') {
+    c.number(amount['Z'], 'setup.amount.Z', { min: 0 });
+    c.number(amount['uZ'], 'setup.amount.uZ', { min: 0 });
+  } else c.add('setup.amount.from', 'must be "moles", "mass" or "initialState"');
+}
+
+function checkInstruments(c: SetupCheck, list: unknown) {
+  if (!Array.isArray(list)) return c.add('setup.instruments', 'must be a list of instruments described in the run');
+  if (list.length > 100) return c.add('setup.instruments', 'holds at most 100 instruments');
+  list.forEach((inst, i) => {
+    const f = `setup.instruments[${i}]`;
+    if (!c.object(inst, f, ['id', 'name', 'range', 'calibrationDate', 'dueDate', 'calibration', ...INSTRUMENT_NUMBERS])) return;
+    if (typeof inst['id'] !== 'string' || inst['id'] === '' || inst['id'].length > 100) c.add(`${f}.id`, 'must be a non-empty text of at most 100 characters');
+    c.text(inst['name'], `${f}.name`);
+    for (const key of INSTRUMENT_NUMBERS) c.number(inst[key], `${f}.${key}`, { min: 0 });
+    if (inst['range'] !== undefined && c.object(inst['range'], `${f}.range`, ['min', 'max'])) {
+      const r = inst['range'] as Record<string, unknown>;
+      c.number(r['min'], `${f}.range.min`, { required: true });
+      c.number(r['max'], `${f}.range.max`, { required: true });
+    }
+    if (inst['calibration'] !== undefined && c.object(inst['calibration'], `${f}.calibration`, ['U', 'k'])) {
+      const cal = inst['calibration'] as Record<string, unknown>;
+      c.number(cal['U'], `${f}.calibration.U`, { required: true, min: 0 });
+      c.number(cal['k'], `${f}.calibration.k`, { required: true, min: 0 });
+    }
+    for (const key of ['calibrationDate', 'dueDate']) if (inst[key] !== undefined && !isIsoDate(inst[key])) c.add(`${f}.${key}`, 'must be a date like 2026-03-14');
+  });
+}
+
+function checkChannels(c: SetupCheck, channels: unknown) {
+  if (!c.object(channels, 'setup.channels', channelNames)) return;
+  for (const [name, channel] of Object.entries(channels)) {
+    if (!(channelNames as string[]).includes(name)) continue;
+    const f = `setup.channels.${name}`;
+    if (!c.object(channel, f, ['unit', 'instrumentId', 'instrument', 'reference'])) continue;
+    if (!isUnit(CHANNELS[name as keyof typeof CHANNELS], channel['unit'])) c.add(`${f}.unit`, `must be a ${CHANNELS[name as keyof typeof CHANNELS]} unit, got ${JSON.stringify(channel['unit'])}`);
+    const id = channel['instrumentId'];
+    if (id !== undefined && (!Number.isInteger(id) || (id as number) < 1 || (id as number) > MAX_ID)) c.add(`${f}.instrumentId`, 'must be the id of an instrument of the register (a whole number from 1)');
+    c.text(channel['instrument'], `${f}.instrument`, 100);
+    if (channel['reference'] !== undefined && channel['reference'] !== 'absolute' && channel['reference'] !== 'gauge') c.add(`${f}.reference`, 'must be "absolute" or "gauge"');
+  }
+}
+
+/**
+ * Checks a run's setup as strictly as a body: known keys only, each of its own shape, numbers finite
+ * (also once converted to SI), ids that fit the register's id column. `setup: {"instruments": 5}`
+ * is refused here, so it can never be stored and break every later read of the run.
+ */
+export function setupProblems(setup: unknown): FieldError[] {
+  const c = new SetupCheck();
+  const keys = ['gas', 'amount', 'processIndex', 'ambient', 'apparatus', 'apparatusSource', 'instruments', 'time', 'channels', 'notes'];
+  if (!c.object(setup, 'setup', keys)) return c.errors;
+  if (setup['gas'] !== undefined) checkGas(c, setup['gas']);
+  if (setup['amount'] !== undefined) checkAmount(c, setup['amount']);
+  c.number(setup['processIndex'], 'setup.processIndex');
+  if (setup['ambient'] !== undefined && c.object(setup['ambient'], 'setup.ambient', ['pressure', 'temperature'])) {
+    const ambient = setup['ambient'] as Record<string, unknown>;
+    if (ambient['pressure'] !== undefined) c.quantity(ambient['pressure'], 'setup.ambient.pressure', 'pressure');
+    if (ambient['temperature'] !== undefined) c.quantity(ambient['temperature'], 'setup.ambient.temperature', 'temperature');
+  }
+  if (setup['apparatus'] !== undefined && c.object(setup['apparatus'], 'setup.apparatus', ['name', ...Object.keys(APPARATUS_KINDS)])) {
+    const app = setup['apparatus'] as Record<string, unknown>;
+    c.text(app['name'], 'setup.apparatus.name');
+    for (const [key, kind] of Object.entries(APPARATUS_KINDS)) if (app[key] !== undefined) c.quantity(app[key], `setup.apparatus.${key}`, kind);
+  }
+  if (setup['apparatusSource'] !== undefined && setup['apparatusSource'] !== 'register' && setup['apparatusSource'] !== 'run') c.add('setup.apparatusSource', 'must be "register" or "run"');
+  if (setup['instruments'] !== undefined) checkInstruments(c, setup['instruments']);
+  if (setup['time'] !== undefined && c.object(setup['time'], 'setup.time', ['unit', 'origin'])) {
+    const time = setup['time'] as Record<string, unknown>;
+    if (!TIME_UNITS.includes(time['unit'] as string)) c.add('setup.time.unit', `must be one of ${TIME_UNITS.join(', ')}`);
+    c.text(time['origin'], 'setup.time.origin', 40);
+  }
+  if (setup['channels'] !== undefined) checkChannels(c, setup['channels']);
+  c.text(setup['notes'], 'setup.notes', 10_000);
+  return c.errors;
+}
+
+/** Throws a 400 listing the setup's problems; nothing is stored. */
+export function assertValidSetup(setup: unknown): void {
+  const errors = setupProblems(setup);
+  if (errors.length) throw badRequest(`The run's setup has ${errors.length} problem(s): ${errors.slice(0, 3).map((e) => e.message).join('; ')}. Nothing was changed.`, errors);
+}
