@@ -8,6 +8,8 @@ export interface ImportLimits {
   maxExpansionRatio: number;
   /** … when it also expands beyond this many bytes (a small workbook may compress well). */
   maxExpandedBytes: number;
+  /** Most seconds spent reading one file, inspection and parse together (QWELL_IMPORT_MAX_SECONDS, default 20). */
+  maxSeconds: number;
 }
 
 const positive = (name: string, fallback: number): number => {
@@ -24,5 +26,6 @@ export function importLimitsFromEnv(): ImportLimits {
     maxRows: Math.round(positive('QWELL_IMPORT_MAX_ROWS', 200_000)),
     maxExpansionRatio: 100,
     maxExpandedBytes: 200 * 1024 * 1024,
+    maxSeconds: positive('QWELL_IMPORT_MAX_SECONDS', 20),
   };
 }

@@ -3,7 +3,7 @@ import { Readable } from 'node:stream';
 import type { ImportLimits } from './import-limits';
 import { unreadableFile } from './import-problems';
 import { columnLetter, type Cell, type RawTable } from './raw-table';
-import { inspectWorkbook } from './zip-inspection';
+import { inspectWorkbook, tookTooLong } from './zip-inspection';
 
 /** Rows above the header that a logger may write (title, serial number, notes). */
 export const HEADER_SEARCH_ROWS = 50;
@@ -30,7 +30,8 @@ function plain(value: unknown): Cell {
  * (size, ZIP bomb, workbook inside). Formulas give their cached results, and the notes say so.
  */
 export async function readXlsx(buf: Buffer, filename: string, limits: ImportLimits, wantedSheet?: string): Promise<RawTable> {
-  const inspection = inspectWorkbook(buf, limits);
+  const deadline = Date.now() + limits.maxSeconds * 1000;
+  const inspection = inspectWorkbook(buf, limits, deadline);
   if (inspection.sheets.length === 0) throw unreadableFile(`"${filename}" holds no worksheets.`);
   const sheet = wantedSheet ?? inspection.sheets[0];
   if (!inspection.sheets.includes(sheet)) {
@@ -39,16 +40,18 @@ export async function readXlsx(buf: Buffer, filename: string, limits: ImportLimi
   const rows: RawTable['rows'] = [];
   let formulas = 0;
   const rowCap = limits.maxRows + HEADER_SEARCH_ROWS;
-  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from([buf]), {
+  // exceljs reads the parts the inspection checked, never the upload's own bytes: one ZIP reader.
+  const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from([inspection.workbookPart(sheet)]), {
     worksheets: 'emit', sharedStrings: 'cache', styles: 'cache', hyperlinks: 'ignore', entries: 'ignore',
   });
   let found = false;
   for await (const worksheet of reader) {
-    const name = (worksheet as unknown as { name: string }).name;
-    const mine = name === sheet && !found;
+    // The archive exceljs reads holds the wanted sheet alone.
+    const mine = !found;
     if (mine) found = true;
     for await (const row of worksheet) {
       if (!mine) continue;
+      if (row.number % 1000 === 0 && Date.now() > deadline) throw tookTooLong(limits);
       const values = row.values as ExcelValue[];
       const cells: Cell[] = [];
       let any = false;
