@@ -2,6 +2,9 @@ import { execFileSync } from 'node:child_process';
 import { chmodSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import bcrypt from 'bcryptjs';
+import postgres from 'postgres';
+import { ApiClient } from '../testing/api-harness';
 import { startQwellProcess, type QwellProcess } from '../testing/qwell-process';
 
 // The database outage drill on a cluster of its own (another folder and port), so that stopping
@@ -31,6 +34,8 @@ async function healthBecomes(url: string, status: number, timeoutMs = 30_000): P
 }
 
 let api: QwellProcess | undefined;
+const EMAIL = 'outage.technician@fuzz.test';
+const PASSWORD = 'outage drill password';
 
 beforeAll(async () => {
   chmodSync(base, 0o755); // the cluster's unprivileged owner must reach its folder
@@ -39,6 +44,10 @@ beforeAll(async () => {
   execFileSync(join(root, 'node_modules/.bin/tsx'), ['--tsconfig', 'tsconfig.server.json', 'db/migrate.ts'], {
     cwd: root, env: { ...process.env, DATABASE_URL: url }, stdio: 'ignore',
   });
+  // One person to sign in with, so that calls past the session reader reach the database.
+  const sql = postgres(url, { max: 1, onnotice: () => undefined });
+  await sql`INSERT INTO people (email, name, role, password_hash) VALUES (${EMAIL}, 'Outage drill', 'technician', ${bcrypt.hashSync(PASSWORD, 4)})`;
+  await sql.end();
   api = await startQwellProcess({ DATABASE_URL: url, QWELL_WORKER: '0' }, 3395);
 }, 120_000);
 
@@ -66,5 +75,29 @@ describe('PostgreSQL stopped and started while the app runs', () => {
     }
     expect(await healthBecomes(url, 200)).toBe(200);
     expect(api!.child.exitCode).toBeNull();
+  }, 90_000);
+
+  it('while it is down, every API call that needs it answers 503 problem+json saying so, sign-in included; afterwards they work again', async () => {
+    const url = api!.url;
+    const signedIn = new ApiClient(url);
+    expect((await signedIn.signIn(EMAIL, PASSWORD)).status).toBe(200);
+    expect((await signedIn.get('/api/runs')).status).toBe(200);
+    pg('down');
+    try {
+      for (const res of [
+        await signedIn.get('/api/runs'),
+        await signedIn.get('/api/instruments'),
+        await signedIn.post('/api/runs', { projectId: 1, title: 'During the outage', process: 'isothermal', runDate: '2026-03-14' }),
+        await new ApiClient(url).signIn(EMAIL, PASSWORD),
+      ]) {
+        expect({ status: res.status, type: res.headers['content-type'] }).toEqual({ status: 503, type: expect.stringContaining('application/problem+json') });
+        expect(res.body.detail).toMatch(/database cannot be reached/);
+        expect(res.headers['retry-after']).toBe('30');
+      }
+    } finally {
+      pg('up');
+    }
+    expect(await healthBecomes(url, 200)).toBe(200);
+    expect((await signedIn.get('/api/runs')).status).toBe(200);
   }, 90_000);
 });
