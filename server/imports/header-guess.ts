@@ -13,7 +13,7 @@ export interface ColumnGuess {
 
 /** The units each import channel takes, as the engine names them. */
 export const UNITS_BY_CHANNEL: Readonly<Record<ImportChannel, readonly string[]>> = {
-  time: ['s', 'min', 'h', 'iso'],
+  time: ['ms', 's', 'min', 'h', 'iso'],
   pressure: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'],
   volume: ['m3', 'L', 'mL', 'cm3'],
   displacement: ['m', 'mm'],
@@ -37,6 +37,7 @@ const UNIT_SPELLINGS: Record<string, [ImportChannel, string, ('absolute' | 'gaug
   v: ['voltage', 'V'], mv: ['voltage', 'mV'], volt: ['voltage', 'V'], volts: ['voltage', 'V'],
   a: ['current', 'A'], ma: ['current', 'mA'], amp: ['current', 'A'], amps: ['current', 'A'],
   w: ['power', 'W'], mw: ['power', 'mW'], watt: ['power', 'W'], watts: ['power', 'W'],
+  ms: ['time', 'ms'], msec: ['time', 'ms'], milliseconds: ['time', 'ms'],
   s: ['time', 's'], sec: ['time', 's'], secs: ['time', 's'], seconds: ['time', 's'],
   min: ['time', 'min'], mins: ['time', 'min'], minutes: ['time', 'min'],
   h: ['time', 'h'], hr: ['time', 'h'], hrs: ['time', 'h'], hours: ['time', 'h'],

@@ -34,7 +34,7 @@ export function parseMapping(value: unknown, prefix = 'mapping'): ImportMapping 
   if (!isObject(value)) throw badRequest(`${prefix} must be { time: { index, unit }, columns: [{ index, channel, unit, reference?, instrumentId? }] }.`, [{ field: prefix, message: 'missing or not an object' }]);
   const time = value['time'];
   if (!isObject(time) || !isIndex(time['index']) || typeof time['unit'] !== 'string') {
-    errors.push({ field: `${prefix}.time`, message: 'time must be { index: column number from 0, unit: "s" | "min" | "h" | "iso" }' });
+    errors.push({ field: `${prefix}.time`, message: 'time must be { index: column number from 0, unit: "ms" | "s" | "min" | "h" | "iso" }' });
   }
   const columns = value['columns'];
   if (!Array.isArray(columns)) errors.push({ field: `${prefix}.columns`, message: 'columns must be a list of { index, channel, unit, reference?, instrumentId? }' });

@@ -15,7 +15,8 @@ const IMPORTERS = ['technician', 'assistant', 'investigator'] as const;
 
 /** multer in memory, with its errors turned into problems people can act on. */
 function fileUpload(limits: ImportLimits): RequestHandler {
-  const single = multer({ storage: multer.memoryStorage(), limits: { fileSize: limits.maxBytes, files: 1, fields: 10 } }).single('file');
+  // Browsers send a file name as raw UTF-8 in the part header; busboy's default (latin1) would store "MÃ¤rz" for "März".
+  const single = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: limits.maxBytes, files: 1, fields: 10 } }).single('file');
   return (req, res, next) => {
     single(req, res, (err: unknown) => {
       if (!err) return next();

@@ -6,7 +6,7 @@ import type { ParsedTable } from './table-builder';
 
 /** How the columns of an upload become a run's readings. */
 export interface ImportMapping {
-  time: { index: number; unit: 's' | 'min' | 'h' | 'iso' };
+  time: { index: number; unit: 'ms' | 's' | 'min' | 'h' | 'iso' };
   columns: Array<{ index: number; channel: ChannelName; unit: string; reference?: 'absolute' | 'gauge'; instrumentId?: number }>;
 }
 
@@ -39,7 +39,7 @@ export function checkMapping(table: ParsedTable, mapping: ImportMapping): void {
   const width = table.headers.length;
   const inRange = (i: number) => Number.isInteger(i) && i >= 0 && i < width;
   if (!inRange(mapping.time.index)) errors.push({ field: 'mapping.time.index', message: `the time column must be a column index from 0 to ${width - 1}` });
-  if (!UNITS_BY_CHANNEL.time.includes(mapping.time.unit)) errors.push({ field: 'mapping.time.unit', message: 'the time unit is s, min, h or iso (date-times)' });
+  if (!UNITS_BY_CHANNEL.time.includes(mapping.time.unit)) errors.push({ field: 'mapping.time.unit', message: 'the time unit is ms, s, min, h or iso (date-times)' });
   const seen = new Set<string>();
   mapping.columns.forEach((c, k) => {
     const at = `mapping.columns[${k}]`;
@@ -124,12 +124,15 @@ export function checkRows(table: ParsedTable, mapping: ImportMapping): RowCheck 
   const first = timeValues[0];
   const last = timeValues[n - 1];
   const seconds = (a: number | string, b: number | string) =>
-    iso ? (Date.parse(String(b)) - Date.parse(String(a))) / 1000 : (Number(b) - Number(a)) * { s: 1, min: 60, h: 3600, iso: 1 }[mapping.time.unit];
+    iso ? (Date.parse(String(b)) - Date.parse(String(a))) / 1000 : (Number(b) - Number(a)) * { ms: 0.001, s: 1, min: 60, h: 3600, iso: 1 }[mapping.time.unit];
   const span = n > 0 ? seconds(first, last) : NaN;
   return {
     errors,
     errorCount,
-    input: { time: { unit: mapping.time.unit, values: timeValues }, channels },
+    // Milliseconds are stored as seconds (the run's time unit becomes s): the engine reads s, min, h and date-times.
+    input: mapping.time.unit === 'ms'
+      ? { time: { unit: 's', values: timeValues.map((v) => (typeof v === 'number' ? v / 1000 : v)) }, channels }
+      : { time: { unit: mapping.time.unit, values: timeValues }, channels },
     summary: { rows: n, timeSpan: Number.isFinite(span) ? { from: first, to: last, unit: mapping.time.unit, seconds: span } : null, perChannel },
   };
 }

@@ -9,6 +9,10 @@ describe('safeFilename (OWASP ASVS V12.3.1: user-supplied file names never act a
     ['..', 'upload'],
     ['', 'upload'],
     ['logger 7 (kPa).csv', 'logger 7 (kPa).csv'],
+    ['Messung_März_°C.csv', 'Messung_März_°C.csv'],
+    ['Ma\u0308rz.csv', 'März.csv'],
+    ['invoice\u202Egpj.csv', 'invoicegpj.csv'],
+    ['zero\u200Bwidth\u0085.csv', 'zerowidth.csv'],
   ])('%j is kept as %j', (input, expected) => {
     expect(safeFilename(input)).toBe(expected);
   });

@@ -1,7 +1,7 @@
 /** What a column of an upload holds: a reading channel, or the time of each reading. */
 export type ImportChannel = 'time' | 'pressure' | 'volume' | 'displacement' | 'temperature' | 'voltage' | 'current' | 'power';
 export type ReadingChannel = Exclude<ImportChannel, 'time'>;
-export type TimeUnit = 's' | 'min' | 'h' | 'iso';
+export type TimeUnit = 'ms' | 's' | 'min' | 'h' | 'iso';
 export type PressureReference = 'absolute' | 'gauge';
 
 /** Qwell's guess for one column, read from its header (and its values for date-times). */
@@ -133,7 +133,7 @@ export const IMPORT_CHANNELS = Object.keys(CHANNEL_LABELS) as ImportChannel[];
 
 /** Units each channel takes, as the server names them. */
 export const UNITS_BY_CHANNEL: Readonly<Record<ImportChannel, readonly string[]>> = {
-  time: ['s', 'min', 'h', 'iso'],
+  time: ['ms', 's', 'min', 'h', 'iso'],
   pressure: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'],
   volume: ['m3', 'L', 'mL', 'cm3'],
   displacement: ['m', 'mm'],
