@@ -33,6 +33,8 @@ export interface Config {
   balance: Required<Omit<BalanceSettings, 'seed'>>;
   /** Take balance checks and scheduled jobs in this process (false for API-only processes). */
   worker: boolean;
+  /** Days an upload never committed into a run is kept before the daily cleanup deletes it (QWELL_UPLOAD_RETENTION_DAYS). */
+  uploadRetentionDays: number;
   /** Name of the lab, written into run documents. */
   labName: string;
   /** The address people open Qwell at, for links in e-mails (QWELL_PUBLIC_URL). */
@@ -101,6 +103,7 @@ export function loadConfig(overrides: Partial<Config> = {}): Config {
     mailDir: process.env['QWELL_MAIL_DIR'] ?? join(dataDir, 'mail'),
     balance: balanceSettingsFromEnv(),
     worker: process.env['QWELL_WORKER'] !== '0',
+    uploadRetentionDays: int('QWELL_UPLOAD_RETENTION_DAYS', 30),
     labName: process.env['QWELL_LAB_NAME'] ?? DEMO_INSTITUTION,
     publicUrl: process.env['QWELL_PUBLIC_URL'] || `http://${process.env['HOST'] ?? '127.0.0.1'}:${int('PORT', 3000)}`,
     ...overrides,

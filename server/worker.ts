@@ -4,6 +4,7 @@ import type { Config } from './config';
 import { sendCalibrationReminder } from './instruments/calibration-reminder';
 import type { JobQueue } from './jobs/job-queue';
 import type { MailDispatcher } from './mail/mail-dispatcher';
+import { purgeStaleUploads } from './imports/upload-retention';
 
 /** Re-queues every submitted run that has no result for its version (after a crash, say). */
 export async function sweepUncheckedRuns(db: Database, queue: JobQueue): Promise<number> {
@@ -25,5 +26,6 @@ export async function startWorker(db: Database, config: Config, queue: JobQueue,
     },
     async () => void (await sweepUncheckedRuns(db, queue)),
   );
+  await queue.scheduleUploadCleanup(async () => void (await purgeStaleUploads(db, config.uploadRetentionDays)));
   await sweepUncheckedRuns(db, queue);
 }

@@ -1,4 +1,4 @@
-import { and, desc, eq } from 'drizzle-orm';
+import { and, desc, eq, sql } from 'drizzle-orm';
 import { auditEvents, projects, uploads } from '../../db/schema';
 import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
 import { csv, uploadFile } from './import-spec-support';
@@ -39,5 +39,29 @@ describe('file names and time units as loggers write them', () => {
     const run = (await tech.get(`/api/runs/${commit.body.runId}`)).body;
     expect(run.readings.time).toEqual([0, 0.25, 0.5]);
     expect(run.setup.time).toEqual({ unit: 's' });
+  });
+});
+
+describe('uploads retention', () => {
+  it('deletes uploads never committed once past the retention period, keeps committed and recent ones, and audits it', async () => {
+    const { purgeStaleUploads } = await import('./upload-retention');
+    const { imports } = await import('../../db/schema');
+    const left = await uploadFile(tech, 'left-behind.csv', csv(['Time (s),P (kPa),T/°C', '0,101.3,25.1', '10,102.0,25.4', '20,102.1,25.5']));
+    expect(left.status).toBe(201);
+    const [leftUpload] = await h.handle.db.select({ id: imports.uploadId }).from(imports).where(eq(imports.id, left.body.importId));
+    const committed = await h.handle.db.select({ id: uploads.id }).from(uploads).where(sql`${uploads.runId} IS NOT NULL`);
+    expect(committed.length).toBeGreaterThan(0);
+    // Forty days on, with 30 days' retention: this upload is stale; uploads committed into runs are not.
+    const later = new Date(Date.now() + 40 * 24 * 3600 * 1000);
+    const purged = await purgeStaleUploads(h.handle.db, 30, later);
+    expect(purged).toBeGreaterThanOrEqual(1);
+    expect(await h.handle.db.select().from(uploads).where(eq(uploads.id, leftUpload.id))).toEqual([]);
+    expect(await h.handle.db.select().from(imports).where(eq(imports.id, left.body.importId))).toEqual([]);
+    const stillThere = await h.handle.db.select({ id: uploads.id }).from(uploads).where(sql`${uploads.runId} IS NOT NULL`);
+    expect(stillThere.map((u) => u.id).sort()).toEqual(committed.map((u) => u.id).sort());
+    const [event] = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.action, 'upload.purge')).orderBy(desc(auditEvents.id)).limit(1);
+    expect(event.after).toMatchObject({ uploads: purged, retentionDays: 30 });
+    // Today, nothing is past 30 days: a second run deletes nothing.
+    expect(await purgeStaleUploads(h.handle.db, 30)).toBe(0);
   });
 });

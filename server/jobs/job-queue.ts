@@ -3,6 +3,7 @@ import PgBoss from 'pg-boss';
 export const BALANCE_QUEUE = 'balance-check';
 export const CALIBRATION_DUE_QUEUE = 'calibration-due';
 export const SWEEP_QUEUE = 'balance-sweep';
+export const UPLOAD_CLEANUP_QUEUE = 'upload-cleanup';
 
 export interface BalanceJob {
   runId: number;
@@ -34,6 +35,7 @@ export class JobQueue {
     await this.boss.updateQueue(BALANCE_QUEUE, balance);
     await this.boss.createQueue(CALIBRATION_DUE_QUEUE, { name: CALIBRATION_DUE_QUEUE, policy: 'standard', retryLimit: 2 });
     await this.boss.createQueue(SWEEP_QUEUE, { name: SWEEP_QUEUE, policy: 'standard' });
+    await this.boss.createQueue(UPLOAD_CLEANUP_QUEUE, { name: UPLOAD_CLEANUP_QUEUE, policy: 'standard' });
   }
 
   /** One job per run version: queuing the same check twice is a no-op. */
@@ -51,6 +53,12 @@ export class JobQueue {
     await this.boss.schedule(SWEEP_QUEUE, '*/5 * * * *', {}, { tz: 'UTC' });
     await this.boss.work(CALIBRATION_DUE_QUEUE, async () => calibrationDue());
     await this.boss.work(SWEEP_QUEUE, async () => sweep());
+  }
+
+  /** Daily at 03:00 UTC: uploads past their retention period are deleted. */
+  async scheduleUploadCleanup(cleanup: () => Promise<void>): Promise<void> {
+    await this.boss.schedule(UPLOAD_CLEANUP_QUEUE, '0 3 * * *', {}, { tz: 'UTC' });
+    await this.boss.work(UPLOAD_CLEANUP_QUEUE, async () => cleanup());
   }
 
   async stop(): Promise<void> {
