@@ -16,6 +16,7 @@ import { sessionReader } from './core/session';
 import { healthRouter } from './health/health-router';
 import type { JobQueue } from './jobs/job-queue';
 import { apiRoutes } from './routes';
+import { isReadingsPut } from './runs/readings-body';
 
 /** Builds the Express app: security, logging, routers, then the API 404 and the one error handler. */
 export function createApp(config: Config, handle: DbHandle, queue: JobQueue | null = null): Express {
@@ -45,7 +46,10 @@ export function createApp(config: Config, handle: DbHandle, queue: JobQueue | nu
       next();
     });
   app.use(cookieParser());
-  app.use(express.json({ limit: '20mb' }));
+  // Readings replaced in one PUT may be large (10⁶ time points); that route parses its own body,
+  // after the sign-in and role checks (server/runs/readings-body.ts). Every other body: 20 MB at most.
+  const json = express.json({ limit: '20mb' });
+  app.use((req, res, next) => (isReadingsPut(req) ? next() : json(req, res, next)));
   // Before any router: NUL and other control characters, bodies nested too deep and prototype keys are refused.
   app.use('/api', inputHygiene);
 

@@ -2,13 +2,13 @@ import { and, eq, sql } from 'drizzle-orm';
 import type { Database, DbOrTx } from '../../db/client';
 import { apparatus, gases, imports, instruments, projectMembers, readings, runs, uploads } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
-import { sha256Canonical } from '../engine';
 import { badRequest, conflict, forbidden, HttpProblem, notFound } from '../core/problem';
 import type { SessionPerson } from '../core/session';
 import { loadRunFor } from '../runs/run-access';
 import { readingsToRows } from '../runs/run-document-mapper';
 import { loadReadings } from '../runs/run-loader';
 import type { RunSetup } from '../runs/run-setup';
+import { sha256ReadingRows } from '../runs/readings-copy';
 import { insertReadings, nextCode } from '../runs/runs-service';
 import type { CommitBody } from './imports-dto';
 import { checkMapping, checkRows, ROW_ERROR_CAP } from './row-validation';
@@ -95,8 +95,8 @@ export async function commitImport(db: Database, person: SessionPerson, id: numb
         .where(eq(runs.id, before.id)).returning();
       await recordAudit(tx, {
         actorId: person.id, actorEmail: person.email, action: 'run.readings-replace', entityType: 'run', entityId: before.id,
-        before: { readings: oldRows.length, sha256: sha256Canonical(oldRows), version: before.version },
-        after: { readings: rows.length, sha256: sha256Canonical(rows), version: after.version, channels: Object.keys(channels ?? {}), importId: id },
+        before: { readings: oldRows.length, sha256: sha256ReadingRows(oldRows), version: before.version },
+        after: { readings: rows.length, sha256: sha256ReadingRows(rows), version: after.version, channels: Object.keys(channels ?? {}), importId: id },
         ip,
       });
       runId = before.id;

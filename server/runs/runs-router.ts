@@ -11,7 +11,8 @@ import { balanceResponse } from '../balance/balance-response';
 import type { JobQueue } from '../jobs/job-queue';
 import { isReviewAction, SignatureDto } from './review-dto';
 import { ReviewService } from './review-service';
-import { CreateRunDto, ReplaceReadingsDto, ReviseDto, RunListQuery, UpdateRunDto, VersionDto } from './runs-dto';
+import { readingsJson, parseReplaceReadingsBody } from './readings-body';
+import { CreateRunDto, ReviseDto, RunListQuery, UpdateRunDto, VersionDto } from './runs-dto';
 import { RunsService } from './runs-service';
 import { assertValidSetup } from './setup-validation';
 import { countReadings, runChecklist } from './submit-checklist';
@@ -47,8 +48,8 @@ export function runsRouter(db: Database, config: Config, queue: JobQueue | null)
     res.json(await service.update(req.person!, idParam(req.params['id'], 'run'), body, req.ip ?? null));
   });
 
-  router.put('/:id/readings', requireRole(...AUTHORS), async (req, res) => {
-    const body = await validateBody(ReplaceReadingsDto, req.body);
+  router.put('/:id/readings', requireRole(...AUTHORS), readingsJson(), async (req, res) => {
+    const body = parseReplaceReadingsBody(req.body);
     res.json(await service.replaceReadings(req.person!, idParam(req.params['id'], 'run'), body, req.ip ?? null));
   });
 

@@ -10,6 +10,7 @@ import { buildSeries } from '../engine/series';
 import type { JobQueue } from '../jobs/job-queue';
 import { projectAddresses, queueMail } from '../mail/outbox';
 import { loadRunFor, loadVisibleRun, type RunRow } from './run-access';
+import { insertReadings, sha256ReadingRows } from './readings-copy';
 import { parseReadingsInput, readingsToRows, type ReadingRow } from './run-document-mapper';
 import { loadReadings, loadRunDocument } from './run-loader';
 import type { RunSetup } from './run-setup';
@@ -24,14 +25,7 @@ export async function visibleProjectIds(db: DbOrTx, person: SessionPerson): Prom
   return rows.map((r) => r.id);
 }
 
-// 9 columns × 5000 rows stays well under PostgreSQL's 65 535 parameters per statement.
-const READINGS_PER_STATEMENT = 5000;
-
-export async function insertReadings(tx: DbOrTx, runId: number, rows: readonly ReadingRow[]): Promise<void> {
-  for (let i = 0; i < rows.length; i += READINGS_PER_STATEMENT) {
-    await tx.insert(readings).values(rows.slice(i, i + READINGS_PER_STATEMENT).map((r) => ({ ...r, runId })));
-  }
-}
+export { insertReadings } from './readings-copy';
 
 /** Next people-facing code, R-<year>-<nnnn>, unique across revisions (call it inside the creating transaction). */
 export async function nextCode(tx: DbOrTx, runDate: string): Promise<string> {
@@ -192,8 +186,8 @@ export class RunsService {
       const [after] = await tx.update(runs).set({ setup: setup as Record<string, unknown>, version: before.version + 1, updatedAt: sql`now()`, editedAt: sql`now()` }).where(eq(runs.id, id)).returning();
       await recordAudit(tx, {
         actorId: person.id, actorEmail: person.email, action: 'run.readings-replace', entityType: 'run', entityId: id,
-        before: { readings: oldRows.length, sha256: sha256Canonical(oldRows), version: before.version },
-        after: { readings: rows.length, sha256: sha256Canonical(rows), version: after.version, channels: Object.keys(channels ?? {}) },
+        before: { readings: oldRows.length, sha256: sha256ReadingRows(oldRows), version: before.version },
+        after: { readings: rows.length, sha256: sha256ReadingRows(rows), version: after.version, channels: Object.keys(channels ?? {}) },
         ip,
       });
       return { id, version: after.version, readings: rows.length };
