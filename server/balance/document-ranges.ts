@@ -3,7 +3,7 @@ import { CHANNEL_KINDS } from '../engine/run-document';
 import { isUnit, toSi, type UnitKind } from '../engine/units';
 import { MAX_SECONDS, MAX_SI_MAGNITUDE } from '../runs/run-document-mapper';
 
-const TIME_FACTORS: Record<string, number> = { s: 1, min: 60, h: 3600 };
+const TIME_FACTORS: Record<string, number> = { ms: 1e-3, s: 1, min: 60, h: 3600 };
 const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 
 /**

@@ -8,7 +8,7 @@ import { loadRunFor } from '../runs/run-access';
 import { readingsToRows } from '../runs/run-document-mapper';
 import { loadReadings } from '../runs/run-loader';
 import type { RunSetup } from '../runs/run-setup';
-import { sha256ReadingRows } from '../runs/readings-copy';
+import { sha256ReadingRows } from '../runs/readings-bulk';
 import { insertReadings, nextCode } from '../runs/runs-service';
 import type { CommitBody } from './imports-dto';
 import { checkMapping, checkRows, ROW_ERROR_CAP } from './row-validation';

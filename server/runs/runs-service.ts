@@ -10,7 +10,7 @@ import { buildSeries } from '../engine/series';
 import type { JobQueue } from '../jobs/job-queue';
 import { projectAddresses, queueMail } from '../mail/outbox';
 import { loadRunFor, loadVisibleRun, type RunRow } from './run-access';
-import { insertReadings, sha256ReadingRows } from './readings-copy';
+import { insertReadings, sha256ReadingRows } from './readings-bulk';
 import { parseReadingsInput, readingsToRows, type ReadingRow } from './run-document-mapper';
 import { loadReadings, loadRunDocument } from './run-loader';
 import type { RunSetup } from './run-setup';
@@ -25,7 +25,7 @@ export async function visibleProjectIds(db: DbOrTx, person: SessionPerson): Prom
   return rows.map((r) => r.id);
 }
 
-export { insertReadings } from './readings-copy';
+export { insertReadings } from './readings-bulk';
 
 /** Next people-facing code, R-<year>-<nnnn>, unique across revisions (call it inside the creating transaction). */
 export async function nextCode(tx: DbOrTx, runDate: string): Promise<string> {

@@ -11,7 +11,7 @@ const APPARATUS_KINDS: Readonly<Record<string, UnitKind>> = {
   pistonBore: 'length', deadVolume: 'volume', vesselVolume: 'volume',
 };
 const INSTRUMENT_NUMBERS = ['percentOfReading', 'percentOfFullScale', 'fullScale', 'resolution', 'repeatability'];
-const TIME_UNITS = ['s', 'min', 'h', 'iso'];
+const TIME_UNITS = ['ms', 's', 'min', 'h', 'iso'];
 
 const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 
@@ -40,8 +40,8 @@ class SetupCheck {
   text(v: unknown, field: string, max = 200) {
     if (v !== undefined && (typeof v !== 'string' || v.length > max)) this.add(field, `must be text of at most ${max} characters`);
   }
-  quantity(v: unknown, field: string, kind: UnitKind) {
-    if (!this.object(v, field, ['value', 'unit', 'u'])) return;
+  quantity(v: unknown, field: string, kind: UnitKind, extra: readonly string[] = []) {
+    if (!this.object(v, field, ['value', 'unit', 'u', ...extra])) return;
     this.number(v['value'], `${field}.value`, { required: true });
     this.number(v['u'], `${field}.u`, { min: 0 });
     if (!isUnit(kind, v['unit'])) return this.add(`${field}.unit`, `must be a ${kind} unit, got ${JSON.stringify(v['unit'])}`);
@@ -52,7 +52,8 @@ class SetupCheck {
 }
 
 function checkGas(c: SetupCheck, gas: unknown) {
-  if (!c.object(gas, 'setup.gas', ['model', 'species', 'f'])) return;
+  if (!c.object(gas, 'setup.gas', ['model', 'species', 'realGas', 'f'])) return;
+  if (gas['realGas'] !== undefined && typeof gas['realGas'] !== 'boolean') c.add('setup.gas.realGas', 'must be true or false');
   if (gas['model'] === 'species') {
     if (!SPECIES.includes(gas['species'] as (typeof SPECIES)[number])) c.add('setup.gas.species', `must be one of ${SPECIES.join(', ')}`);
   } else if (gas['model'] === 'equipartition') c.number(gas['f'], 'setup.gas.f', { required: true, min: 0 });
@@ -126,7 +127,11 @@ export function setupProblems(setup: unknown): FieldError[] {
   c.number(setup['processIndex'], 'setup.processIndex');
   if (setup['ambient'] !== undefined && c.object(setup['ambient'], 'setup.ambient', ['pressure', 'temperature'])) {
     const ambient = setup['ambient'] as Record<string, unknown>;
-    if (ambient['pressure'] !== undefined) c.quantity(ambient['pressure'], 'setup.ambient.pressure', 'pressure');
+    if (ambient['pressure'] !== undefined) {
+      // The barometer may be an instrument described in the run (setup.instruments[].id).
+      c.quantity(ambient['pressure'], 'setup.ambient.pressure', 'pressure', ['instrument']);
+      c.text((ambient['pressure'] as Record<string, unknown>)?.['instrument'], 'setup.ambient.pressure.instrument', 100);
+    }
     if (ambient['temperature'] !== undefined) c.quantity(ambient['temperature'], 'setup.ambient.temperature', 'temperature');
   }
   if (setup['apparatus'] !== undefined && c.object(setup['apparatus'], 'setup.apparatus', ['name', ...Object.keys(APPARATUS_KINDS)])) {

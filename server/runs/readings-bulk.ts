@@ -1,6 +1,4 @@
 import { createHash } from 'node:crypto';
-import { Readable } from 'node:stream';
-import { pipeline } from 'node:stream/promises';
 import type postgres from 'postgres';
 import type { DbOrTx } from '../../db/client';
 import { readings } from '../../db/schema';
@@ -8,12 +6,13 @@ import type { ReadingRow } from './run-document-mapper';
 
 // 10 columns × 5000 rows stays well under PostgreSQL's 65 535 parameters per statement.
 const READINGS_PER_STATEMENT = 5000;
-/** From this many readings on, COPY: one statement streaming text, instead of statements of bound parameters. */
-export const COPY_FROM_ROWS = 5000;
-/** Readings per chunk written into the COPY stream. */
-const COPY_CHUNK = 10_000;
+/** From this many readings on, the bulk path: one statement per 50 000 readings, ten array parameters each. */
+export const BULK_FROM_ROWS = 5000;
+const BULK_CHUNK = 50_000;
+/** Readings per piece of the audit hash's text. */
+const HASH_CHUNK = 10_000;
 
-/** The postgres.js connection under a Drizzle database or transaction (COPY needs the driver itself). */
+/** The postgres.js connection under a Drizzle database or transaction (the bulk insert binds arrays through it). */
 function driverOf(db: DbOrTx): postgres.Sql {
   const handle = db as unknown as { session?: { client?: postgres.Sql }; $client?: postgres.Sql };
   const client = handle.session?.client ?? handle.$client;
@@ -21,33 +20,29 @@ function driverOf(db: DbOrTx): postgres.Sql {
   return client;
 }
 
-// PostgreSQL reads shortest round-trip decimal text back to the same double; \N is NULL in COPY's text format.
-const cell = (v: number | null) => (v === null ? '\\N' : String(v));
-
-function* copyText(runId: number, rows: readonly ReadingRow[]): Generator<string> {
-  for (let start = 0; start < rows.length; start += COPY_CHUNK) {
-    let chunk = '';
-    for (let i = start; i < Math.min(rows.length, start + COPY_CHUNK); i++) {
-      const r = rows[i];
-      chunk += `${runId}\t${r.seq}\t${cell(r.time)}\t${cell(r.pressure)}\t${cell(r.volume)}\t${cell(r.displacement)}\t${cell(r.temperature)}\t${cell(r.voltage)}\t${cell(r.current)}\t${cell(r.power)}\n`;
-    }
-    yield chunk;
-  }
-}
-
 /**
- * Stores a run's readings inside the caller's transaction: multi-row inserts for a few thousand,
- * COPY FROM STDIN for more (10⁶ readings in seconds, streamed in chunks rather than built as one text).
+ * Stores a run's readings inside the caller's transaction: multi-row inserts of bound values for a
+ * few thousand; for more, INSERT … SELECT FROM unnest(arrays), one statement per 50 000 readings
+ * (10⁶ readings in seconds). Not COPY: the driver (postgres.js 3.4) never settles a COPY that the
+ * server refuses at its end, such as the statement-level run check of migration 0007.
  */
 export async function insertReadings(tx: DbOrTx, runId: number, rows: readonly ReadingRow[]): Promise<void> {
-  if (rows.length < COPY_FROM_ROWS) {
+  if (rows.length < BULK_FROM_ROWS) {
     for (let i = 0; i < rows.length; i += READINGS_PER_STATEMENT) {
       await tx.insert(readings).values(rows.slice(i, i + READINGS_PER_STATEMENT).map((r) => ({ ...r, runId })));
     }
     return;
   }
-  const writable = await driverOf(tx)`COPY readings (run_id, seq, time, pressure, volume, displacement, temperature, voltage, current, power) FROM STDIN`.writable();
-  await pipeline(Readable.from(copyText(runId, rows)), writable);
+  const sql = driverOf(tx);
+  for (let start = 0; start < rows.length; start += BULK_CHUNK) {
+    const part = rows.slice(start, start + BULK_CHUNK);
+    // Numbers travel as shortest round-trip decimal text, which PostgreSQL reads back to the same double.
+    const col = (key: Exclude<keyof ReadingRow, 'seq'>) => sql.array(part.map((r) => r[key]) as number[], 701);
+    await sql`INSERT INTO readings (run_id, seq, time, pressure, volume, displacement, temperature, voltage, current, power)
+      SELECT ${runId}::int, * FROM unnest(${sql.array(part.map((r) => r.seq), 23)}::int[], ${col('time')}::float8[], ${col('pressure')}::float8[],
+        ${col('volume')}::float8[], ${col('displacement')}::float8[], ${col('temperature')}::float8[], ${col('voltage')}::float8[],
+        ${col('current')}::float8[], ${col('power')}::float8[])`;
+  }
 }
 
 const num = (v: number | null): string => {
@@ -64,9 +59,9 @@ const num = (v: number | null): string => {
 export function sha256ReadingRows(rows: readonly ReadingRow[]): string {
   const hash = createHash('sha256');
   hash.update('[');
-  for (let start = 0; start < rows.length; start += COPY_CHUNK) {
+  for (let start = 0; start < rows.length; start += HASH_CHUNK) {
     let chunk = '';
-    for (let i = start; i < Math.min(rows.length, start + COPY_CHUNK); i++) {
+    for (let i = start; i < Math.min(rows.length, start + HASH_CHUNK); i++) {
       const r = rows[i];
       chunk += `${i > 0 ? ',' : ''}{"current":${num(r.current)},"displacement":${num(r.displacement)},"power":${num(r.power)},"pressure":${num(r.pressure)},"seq":${num(r.seq)},"temperature":${num(r.temperature)},"time":${num(r.time)},"voltage":${num(r.voltage)},"volume":${num(r.volume)}}`;
     }
