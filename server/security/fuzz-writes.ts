@@ -171,3 +171,75 @@ export async function fuzzClients(app: Express, db: Database, ids: FuzzIds): Pro
 
 /** A target's URL with its parameters filled in. */
 export const fuzzUrl = (target: FuzzTarget, ids: FuzzIds) => target.path.replace(/:[a-z]+/g, (p) => String(ids[p]));
+
+/** A body sent as this exact text (deep nesting, "__proto__" keys: what JSON.stringify of an object cannot write). */
+export interface RawBody {
+  raw: string;
+}
+const isRaw = (v: unknown): v is RawBody => typeof v === 'object' && v !== null && typeof (v as RawBody).raw === 'string' && Object.keys(v).length === 1;
+
+/** Paths to every value inside a payload (arrays: their first three items), for changes deep inside it. */
+function pathsOf(value: unknown, prefix: Array<string | number> = [], out: Array<Array<string | number>> = []): Array<Array<string | number>> {
+  if (prefix.length > 0) out.push(prefix);
+  if (Array.isArray(value)) value.slice(0, 3).forEach((v, i) => pathsOf(v, [...prefix, i], out));
+  else if (value && typeof value === 'object') for (const [k, v] of Object.entries(value)) pathsOf(v, [...prefix, k], out);
+  return out;
+}
+
+function setAt(value: unknown, path: Array<string | number>, replacement: unknown): unknown {
+  if (path.length === 0) return replacement;
+  const copy = (Array.isArray(value) ? [...value] : { ...(value as Record<string, unknown>) }) as Record<string | number, unknown>;
+  copy[path[0]] = setAt((value as Record<string | number, unknown>)[path[0]], path.slice(1), replacement);
+  return copy;
+}
+
+const CONTROL_CHARS = ['\u0000', '\u0001', '\u0007', '\u0008', '\u000b', '\u001b', '\u007f', '\u0085', '\u009b'];
+const OVERFLOW_NUMBERS = [1e306, -1e306, 1e308, -1.7976931348623157e308, 2 ** 31, -(2 ** 31) - 1, 2 ** 53 + 2, 5e-324, 1e-320];
+const WRONG_NESTED = [5, -1, 'text', '', true, null, [], [[]], {}, { instruments: 5 }, [1, 'two', null], { unit: 5, values: 'many' }];
+
+/**
+ * The hostile families of issue 16, each built from a route's valid payload so that it gets past the
+ * role gate and the first checks: a control character in a string anywhere, nesting from 33 to 10 000
+ * deep, numbers that overflow once converted to SI or do not fit an id column, wrong types deep inside
+ * nested objects (setup, channels), and prototype keys written into the JSON text.
+ */
+export function hostileFamilies(template: Record<string, unknown>): Record<string, fc.Arbitrary<unknown>> {
+  const paths = pathsOf(template);
+  const path = fc.constantFrom(...paths);
+  const text = JSON.stringify(template);
+  return {
+    // In a value anywhere, or in a key of an object (the payload itself or one inside it).
+    'control character': fc.tuple(path, fc.constantFrom(...CONTROL_CHARS), fc.string({ maxLength: 8 }), fc.boolean())
+      .map(([p, c, s, asKey]) => {
+        const parentPath = p.slice(0, -1);
+        const parent = parentPath.reduce<unknown>((v, k) => (v as Record<string | number, unknown>)[k], template);
+        return asKey && parent && typeof parent === 'object' && !Array.isArray(parent)
+          ? setAt(template, parentPath, { ...parent, [`k${c}${s}`]: s })
+          : setAt(template, p, `${s}${c}${s}`);
+      }),
+    'deep nesting': fc.tuple(fc.constantFrom(...Object.keys(template)), fc.integer({ min: 33, max: 10_000 }), fc.boolean())
+      .map(([key, depth, arrays]): RawBody => {
+        const deep = arrays ? `${'['.repeat(depth)}${']'.repeat(depth)}` : `${'{"a":'.repeat(depth)}1${'}'.repeat(depth)}`;
+        return { raw: text.replace(/^\{/, `{${JSON.stringify(key)}:${deep},`) };
+      }),
+    'overflow after SI': fc.tuple(path, fc.constantFrom(...OVERFLOW_NUMBERS)).map(([p, n]) => setAt(template, p, n)),
+    'wrong nested type': fc.tuple(path, fc.constantFrom(...WRONG_NESTED)).map(([p, v]) => setAt(template, p, v)),
+    'prototype key': fc.tuple(fc.constantFrom('__proto__', 'constructor', 'prototype'), fc.boolean()).map(([key, nested]): RawBody => ({
+      raw: nested && /":\{/.test(text) ? text.replace(/":\{/, `":{"${key}":{"polluted":true},`) : text.replace(/^\{/, `{"${key}":{"polluted":true},`),
+    })),
+  };
+}
+
+/** Sends one payload (an object, or a RawBody as its exact text) and answers its status; the fuzz run's parallel sends use this. */
+export async function sendOnce(db: Database, client: ApiClient, method: string, url: string, raw: unknown): Promise<{ status: number; body: unknown; sent: string }> {
+  let text: string;
+  if (isRaw(raw)) {
+    const [run] = /\/api\/runs\/(\d+)/.test(url) ? await db.select({ version: runs.version }).from(runs).where(eq(runs.id, Number(/\/api\/runs\/(\d+)/.exec(url)![1]))) : [];
+    text = raw.raw.replace(`"${CURRENT_VERSION}"`, String(run?.version ?? 1));
+  } else {
+    text = JSON.stringify(await withCurrentVersion(db, url, raw));
+  }
+  const req = method === 'POST' ? client.agent.post(url) : method === 'PUT' ? client.agent.put(url) : client.agent.patch(url);
+  const res = await req.set('X-XSRF-TOKEN', client.xsrfToken).set('Content-Type', 'application/json').send(text);
+  return { status: res.status, body: res.body, sent: text.length > 2000 ? `${text.slice(0, 2000)}…` : text };
+}
