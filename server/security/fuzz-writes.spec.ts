@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
 import { eq } from 'drizzle-orm';
 import { runs } from '../../db/schema';
-import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, payloadsFor, rowCounts, type FuzzIds } from './fuzz-writes';
+import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, hostileFamilies, payloadsFor, rowCounts, sendOnce, type FuzzIds } from './fuzz-writes';
 
 let h: ApiHarness;
 let clients: Record<string, ApiClient>;
@@ -46,6 +46,24 @@ describe('fuzzing the write routes', () => {
     // Approval also needs the queued balance check's result, which this harness does not run: a
     // conflict (409) there is the route's own state check, past validation.
     expect(Object.fromEntries(Object.entries(answers).filter(([, status]) => status >= 300))).toEqual({ 'POST /api/runs/:submitted/approve': 409 });
+  });
+});
+
+describe('the hostile families of issue 16, sent in parallel', () => {
+  // A few of each family per route here; tools/fuzz runs a tenth of its cases again as these.
+  const PER_FAMILY = 3;
+  it.each(fuzzTargets.map((t) => [`${t.method} ${t.path}`, t] as const))('%s answers no 5xx to control characters, deep nesting, overflow, wrong nested types, prototype keys', async (_name, target) => {
+    const url = fuzzUrl(target, ids);
+    const sends: Array<Promise<{ family: string; status: number; sent: string }>> = [];
+    for (const [family, arbitrary] of Object.entries(hostileFamilies(target.valid(ids)))) {
+      for (const body of fc.sample(arbitrary, { numRuns: PER_FAMILY, seed: 16 })) {
+        sends.push(sendOnce(h.handle.db, clients[target.actor], target.method, url, body).then((r) => ({ family, status: r.status, sent: r.sent })));
+      }
+    }
+    const answers = await Promise.all(sends);
+    expect(answers.filter((a) => a.status >= 500)).toEqual([]);
+    // Every deep, prototype-key and control-character payload is refused (these are never valid).
+    expect(answers.filter((a) => ['deep nesting', 'prototype key', 'control character'].includes(a.family) && a.status < 400)).toEqual([]);
   });
 });
 

@@ -220,7 +220,8 @@ export function hostileFamilies(template: Record<string, unknown>): Record<strin
     'deep nesting': fc.tuple(fc.constantFrom(...Object.keys(template)), fc.integer({ min: 33, max: 10_000 }), fc.boolean())
       .map(([key, depth, arrays]): RawBody => {
         const deep = arrays ? `${'['.repeat(depth)}${']'.repeat(depth)}` : `${'{"a":'.repeat(depth)}1${'}'.repeat(depth)}`;
-        return { raw: text.replace(/^\{/, `{${JSON.stringify(key)}:${deep},`) };
+        // Last in the text, so that it wins over the field's own value (JSON.parse keeps the last of duplicate keys).
+        return { raw: text.replace(/\}$/, `,${JSON.stringify(key)}:${deep}}`) };
       }),
     'overflow after SI': fc.tuple(path, fc.constantFrom(...OVERFLOW_NUMBERS)).map(([p, n]) => setAt(template, p, n)),
     'wrong nested type': fc.tuple(path, fc.constantFrom(...WRONG_NESTED)).map(([p, v]) => setAt(template, p, v)),
