@@ -54,7 +54,7 @@ describe('insertReadings on the database', () => {
     });
   });
 
-  it('refuses readings of a run that does not exist, by the bulk path and by INSERT (the statement-level check of migration 0007)', async () => {
+  it('refuses readings of a run that does not exist, by the bulk path and by INSERT (the statement-level check of migration 0008)', async () => {
     const rows = Array.from({ length: BULK_FROM_ROWS }, (_, i) => row(i + 1));
     for (const batch of [rows, rows.slice(0, 3)]) {
       const error = await h.handle.db.transaction(async (tx) => insertReadings(tx, 2_000_000_000, batch)).then(() => null, (e: { code?: string; cause?: { code?: string } }) => e);

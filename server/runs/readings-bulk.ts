@@ -24,7 +24,7 @@ function driverOf(db: DbOrTx): postgres.Sql {
  * Stores a run's readings inside the caller's transaction: multi-row inserts of bound values for a
  * few thousand; for more, INSERT … SELECT FROM unnest(arrays), one statement per 50 000 readings
  * (10⁶ readings in seconds). Not COPY: the driver (postgres.js 3.4) never settles a COPY that the
- * server refuses at its end, such as the statement-level run check of migration 0007.
+ * server refuses at its end, such as the statement-level run check of migration 0008.
  */
 export async function insertReadings(tx: DbOrTx, runId: number, rows: readonly ReadingRow[]): Promise<void> {
   if (rows.length < BULK_FROM_ROWS) {

@@ -113,6 +113,37 @@ function checkChannels(c: SetupCheck, channels: unknown) {
   }
 }
 
+/** The calorimetric fields of a run document kept in the setup: purpose, the known heat of a standardization, the main period. */
+function checkCalorimetry(c: SetupCheck, setup: Record<string, unknown>) {
+  if (setup['purpose'] !== undefined && setup['purpose'] !== 'measurement' && setup['purpose'] !== 'standardization') c.add('setup.purpose', 'must be "measurement" or "standardization"');
+  const source = setup['heatSource'];
+  if (source !== undefined && c.object(source, 'setup.heatSource', ['kind', 'material', 'mass', 'massicEnergy', 'corrections'])) {
+    if (source['kind'] === 'reference-material') {
+      c.text(source['material'], 'setup.heatSource.material');
+      c.quantity(source['mass'], 'setup.heatSource.mass', 'mass');
+      if (c.object(source['massicEnergy'], 'setup.heatSource.massicEnergy', ['value', 'unit', 'u'])) {
+        const e = source['massicEnergy'] as Record<string, unknown>;
+        c.number(e['value'], 'setup.heatSource.massicEnergy.value', { required: true });
+        c.number(e['u'], 'setup.heatSource.massicEnergy.u', { min: 0 });
+        c.text(e['unit'], 'setup.heatSource.massicEnergy.unit', 10);
+      }
+      const corrections = source['corrections'];
+      if (corrections !== undefined && !Array.isArray(corrections)) c.add('setup.heatSource.corrections', 'must be a list of { name, energy }');
+      else (corrections as unknown[] | undefined)?.slice(0, 100).forEach((corr, i) => {
+        const f = `setup.heatSource.corrections[${i}]`;
+        if (!c.object(corr, f, ['name', 'energy'])) return;
+        c.text((corr as Record<string, unknown>)['name'], `${f}.name`);
+        c.quantity((corr as Record<string, unknown>)['energy'], `${f}.energy`, 'energy');
+      });
+    } else if (source['kind'] !== 'electrical') c.add('setup.heatSource.kind', 'must be "electrical" or "reference-material"');
+  }
+  if (setup['periods'] !== undefined && c.object(setup['periods'], 'setup.periods', ['mainStart', 'mainEnd'])) {
+    const p = setup['periods'] as Record<string, unknown>;
+    c.number(p['mainStart'], 'setup.periods.mainStart', { required: true });
+    c.number(p['mainEnd'], 'setup.periods.mainEnd', { required: true });
+  }
+}
+
 /**
  * Checks a run's setup as strictly as a body: known keys only, each of its own shape, numbers finite
  * (also once converted to SI), ids that fit the register's id column. `setup: {"instruments": 5}`
@@ -120,7 +151,7 @@ function checkChannels(c: SetupCheck, channels: unknown) {
  */
 export function setupProblems(setup: unknown): FieldError[] {
   const c = new SetupCheck();
-  const keys = ['gas', 'amount', 'processIndex', 'ambient', 'apparatus', 'apparatusSource', 'instruments', 'time', 'channels', 'notes'];
+  const keys = ['gas', 'amount', 'processIndex', 'ambient', 'apparatus', 'apparatusSource', 'instruments', 'time', 'channels', 'notes', 'purpose', 'heatSource', 'periods'];
   if (!c.object(setup, 'setup', keys)) return c.errors;
   if (setup['gas'] !== undefined) checkGas(c, setup['gas']);
   if (setup['amount'] !== undefined) checkAmount(c, setup['amount']);
@@ -148,6 +179,7 @@ export function setupProblems(setup: unknown): FieldError[] {
   }
   if (setup['channels'] !== undefined) checkChannels(c, setup['channels']);
   c.text(setup['notes'], 'setup.notes', 10_000);
+  checkCalorimetry(c, setup);
   return c.errors;
 }
 
