@@ -8,6 +8,7 @@ import { RouterLink } from '@angular/router';
 import { Auth } from '../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../core/http/problem-details';
 import { RoleLabelPipe } from '../../shared/role-label-pipe';
+import { StandardizationDue } from '../apparatus/standardization/standardization-due';
 import { HomeApi } from './home-api';
 import { HomeQueue } from './home.models';
 
@@ -32,7 +33,7 @@ const QUEUE_ICONS: Readonly<Record<string, string>> = {
 
 @Component({
   selector: 'qw-home',
-  imports: [MatIconModule, MatProgressBarModule, RoleLabelPipe, RouterLink],
+  imports: [MatIconModule, MatProgressBarModule, RoleLabelPipe, RouterLink, StandardizationDue],
   templateUrl: './home.html',
   styleUrl: './home.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,3 +1,4 @@
+import type { CalorimetryResult } from './calorimetry.models';
 import type { Verdict } from '../../shared/verdict-display/verdict-display';
 import type { RunReadings, RunSetup } from './run-entry.models';
 import type { RunState } from './runs.models';
@@ -56,6 +57,7 @@ export interface RunRecord {
   verdict: Verdict | null;
   runDate: string;
   returnReason: string | null;
+  apparatusId?: number | null;
   authorId: number;
   authorName: string;
   projectName: string;
@@ -101,7 +103,7 @@ export interface DiagnosticHint {
 }
 
 /** The engine's balance result (energies in J, u standard, U expanded). */
-export interface BalanceResult {
+export interface BalanceResult extends CalorimetryResult {
   engineVersion: string;
   inputHash: string;
   process: { claimed: string; index: number | null };

@@ -7,6 +7,7 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
+import { RouterLink } from '@angular/router';
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
@@ -18,7 +19,7 @@ import { Apparatus } from '../apparatus.models';
 /** The apparatus register: vessels, piston cells and calorimeters with their thermal constants. */
 @Component({
   selector: 'qw-apparatus-register',
-  imports: [DecimalPipe, MatButtonModule, MatIconModule, MatProgressBarModule, MatTableModule],
+  imports: [DecimalPipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, MatTableModule],
   templateUrl: './apparatus-register.html',
   styleUrl: './apparatus-register.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -16,6 +16,7 @@ import { VERDICT_LOOKS, VerdictDisplay } from '../../../shared/verdict-display/v
 import { ReviewDialog, ReviewDialogData } from '../review-dialog/review-dialog';
 import { RunsApi } from '../runs-api';
 import { BalanceResponse, HistoryEvent, RUN_STATE_LABELS, ReviewAction, RunRecord, RunState } from '../runs.models';
+import { CalorimetryCard } from './calorimetry-card';
 import { BalanceCard } from './balance-card';
 import { BudgetTable } from './budget-table';
 import { CorrectionDialog } from './correction-dialog';
@@ -56,6 +57,7 @@ function attempt<T>(request: Observable<T>): Observable<Loaded<T>> {
   imports: [
     BalanceCard,
     BudgetTable,
+    CalorimetryCard,
     DatePipe,
     MatButtonModule,
     MatIconModule,
