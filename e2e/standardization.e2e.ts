@@ -49,6 +49,19 @@ describe('standardizing a bath calorimeter', () => {
   it('six runs over three days, a signed standardization, a run that uses it, and a repair that flags the next run', async () => {
     const quality = await sessionAs('quality');
     const technician = await sessionAs('technician');
+    // The demo bath calorimeter's history: its chart marks the one out-of-control run.
+    const bc1 = ((await api(quality.page, 'GET', '/api/apparatus')).items as Array<{ id: number; tag: string }>).find((a) => a.tag === 'BC-1')!;
+    await quality.page.goto(`/apparatus/${bc1.id}`);
+    await quality.page.getByRole('img', { name: /out of control: R-\d{4}-\d{4}/ }).waitFor();
+    await screenshot(quality.page, 'apparatus-bc1-control-chart');
+    // The entry form offers a standardization run with its heat source.
+    await technician.page.goto('/runs/new');
+    await technician.page.getByRole('radio', { name: 'Calorimeter (no gas)' }).check();
+    await technician.page.getByRole('radio', { name: /Standardization run/ }).check();
+    await technician.page.getByRole('radio', { name: 'Reference material' }).check();
+    expect(await technician.page.getByLabel('Certified massic energy (J/g)').inputValue()).toBe('26434');
+    await technician.page.getByLabel('Certified massic energy (J/g)').scrollIntoViewIfNeeded();
+    await screenshot(technician.page, 'run-entry-standardization');
     const tag = `BC-E${Date.now().toString(36).toUpperCase().slice(-4)}`;
     const app = await api(quality.page, 'POST', '/api/apparatus', { tag, name: `Bath calorimeter ${tag}`, kind: 'bath-calorimeter', heatCapacity: 4850, heatCapacityU: 12, heatLossCoefficient: 0.12, heatLossCoefficientU: 0.02 });
     const instruments = (await api(technician.page, 'GET', '/api/instruments')).items as Array<{ id: number; tag: string }>;
@@ -95,6 +108,7 @@ describe('standardizing a bath calorimeter', () => {
     expect(used.flags.map((f: { code: string }) => f.code)).not.toContain('STANDARDIZATION_DUE');
     await technician.page.goto(`/runs/${later}`);
     await technician.page.getByText('Standardization used').waitFor();
+    await technician.page.getByRole('heading', { name: 'Corrected temperature rise' }).scrollIntoViewIfNeeded();
     await screenshot(technician.page, 'run-corrected-rise');
 
     // A repair recorded by the quality officer makes the next run flagged.

@@ -1,3 +1,4 @@
+import { standardizationControls, standardizationFromSetup, standardizationSetup } from './standardization-fields';
 import { AbstractControl, FormControl, FormGroup, ValidationErrors, Validators } from '@angular/forms';
 
 import {
@@ -77,6 +78,7 @@ export function createRunForm(today: string) {
       ambientTemperatureUnit: new FormControl('degC', { nonNullable: true }),
       ambientTemperatureU: optionalNumber(),
       timeUnit: new FormControl<TimeUnit>('s', { nonNullable: true }),
+      standardization: standardizationControls(),
       channels: new FormGroup({
         pressure: channelGroup('pressure'),
         volume: channelGroup('volume'),
@@ -170,8 +172,8 @@ const withU = (u: number | null) => (u !== null ? { u } : {});
  * own (notes, run-specific apparatus values, described instruments) pass through unchanged.
  */
 export function setupOf(v: RunFormValue, gases: readonly Gas[], base: DraftSetup = {}): DraftSetup {
-  const { gas: _gas, amount: _amount, processIndex: _n, ambient: _ambient, channels: _channels, ...kept } = base;
-  const setup: DraftSetup = { ...kept, time: { unit: v.timeUnit } };
+  const { gas: _gas, amount: _amount, processIndex: _n, ambient: _ambient, channels: _channels, purpose: _p, heatSource: _h, ...kept } = base;
+  const setup: DraftSetup = { ...kept, time: { unit: v.timeUnit }, ...standardizationSetup(v.standardization, v.gasModel === 'calorimeter') };
   const species = gases.find((g) => g.id === v.gasId)?.code;
   if (v.gasModel === 'species' && species) {
     setup.gas = { model: 'species', species };
@@ -262,6 +264,7 @@ export function loadDraft(form: RunForm, draft: RunDraft, gases: readonly Gas[])
     massUnit: amount?.from === 'mass' ? amount.mass.unit : 'g',
     massU: amount?.from === 'mass' ? (amount.mass.u ?? null) : null,
     compressibility: amount?.from === 'initialState' ? (amount.Z ?? null) : null,
+    standardization: standardizationFromSetup(setup),
     apparatusId: draft.apparatusId,
     ambientPressure: setup.ambient?.pressure?.value ?? null,
     ambientPressureUnit: setup.ambient?.pressure?.unit ?? 'kPa',
