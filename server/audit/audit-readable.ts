@@ -4,7 +4,7 @@
 /** One term for the kind of record an event touched, shown as "record type" everywhere. */
 export const RECORD_TYPE_LABELS: Readonly<Record<string, string>> = {
   run: 'Run', signature: 'Signature', instrument: 'Instrument', apparatus: 'Apparatus', person: 'Person',
-  project: 'Project', import: 'Import', 'column-map': 'Column map', audit: 'Audit trail', lab: 'Lab',
+  project: 'Project', import: 'Import', 'column-map': 'Column map', audit: 'Audit trail', lab: 'Lab', standardization: 'Standardization',
 };
 
 /** What happened, as a short phrase a person reads aloud. */
@@ -33,6 +33,9 @@ export const ACTION_LABELS: Readonly<Record<string, string>> = {
   'calibration.create': 'Added a calibration',
   'apparatus.create': 'Added the apparatus',
   'apparatus.update': 'Changed the apparatus',
+  'apparatus.change': 'Recorded a change to the apparatus (standardization due)',
+  'standardization.approve': 'Approved a standardization',
+  'seed.standardization': 'Loaded a demo standardization',
   'person.create': 'Added the person',
   'person.update': 'Changed the person',
   'project.create': 'Created the project',

@@ -71,6 +71,7 @@ export type ExportFormat = 'xlsx' | 'csv' | 'pdf';
 
 /** Actions the server records, offered as suggestions; any other text still filters. */
 export const KNOWN_ACTIONS: readonly string[] = [
+  'apparatus.change',
   'apparatus.create',
   'apparatus.update',
   'auth.account-locked',
@@ -93,6 +94,7 @@ export const KNOWN_ACTIONS: readonly string[] = [
   'run.revise',
   'run.submit',
   'run.update',
+  'standardization.approve',
   'seed.demo-lab',
   'seed.run',
   'signature.create',
