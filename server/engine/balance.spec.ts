@@ -57,6 +57,17 @@ describe('first-law bookkeeping on the fixtures', () => {
     // the path runs from 300 K to about 227 K, where γ of air rises slightly; the fit sits within 2e-3
     expect(Math.abs(r.polytropicFit!.index - 1.39999)).toBeLessThan(2e-3);
   });
+  it('the result carries the gas model\'s own γ, for the P–V diagram: N₂ ≈ 1.400, CO₂ ≈ 1.29 (not 1.4)', () => {
+    // REFERENCES §2b: γ(298.15 K) = 1.39955 for N₂ and 1.28854 for CO₂; the run's mean temperature is near 300 K,
+    // where γ of CO₂ is a little lower (Cp rises), so the checks allow 5e-3.
+    const n2 = run(load('isothermal.json'), 0);
+    expect(Math.abs(n2.gamma! - 1.39955)).toBeLessThan(5e-3);
+    const co2 = run({ ...load('isothermal.json'), gas: { model: 'species', species: 'CO2' } }, 0);
+    expect(Math.abs(co2.gamma! - 1.28854)).toBeLessThan(5e-3);
+    const T = 0.5 * (co2.temperatures.T1 + co2.temperatures.T2);
+    expect(T).toBeGreaterThan(280);
+    expect(T).toBeLessThan(320);
+  });
   it('isothermal run: model nRT ln(V2/V1) beside the measured W, gap reported', () => {
     const r = run(load('isothermal.json'));
     expect(r.work.model).not.toBeNull();

@@ -56,6 +56,8 @@ export interface BalanceResult {
   settings: Required<BalanceSettings>;
   process: { claimed: string; index: number | null };
   gas: string;
+  /** γ = Cp/Cv of the gas model at the mean of T1 and T2 (ideal gas); null for a calorimeter without a gas. */
+  gamma: number | null;
   amount: { n: number | null; source: string };
   temperatures: { T1: number; T2: number };
   work: { measured: number; u: number; U: number; model: number | null; modelFormula: string; gap: number | null };
@@ -247,6 +249,7 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
     settings: effective,
     process: { claimed: doc.process.claimed, index: doc.process.index ?? null },
     gas: gasModel ? gasModel.label : 'calorimeter',
+    gamma: g ?? null,
     amount: { n: nom.n, source: amountSource },
     temperatures: { T1: nom.T1, T2: nom.T2 },
     work: { measured: W, u: uW, U: k * uW, model: modelW.value, modelFormula: modelW.formula, gap: modelW.value === null ? null : W - modelW.value },

@@ -108,6 +108,8 @@ export interface BalanceResult extends CalorimetryResult {
   inputHash: string;
   process: { claimed: string; index: number | null };
   gas: string;
+  /** γ = Cp/Cv of the gas at the run's mean temperature; absent in results stored before the engine kept it. */
+  gamma?: number | null;
   amount: { n: number | null; source: string };
   temperatures: { T1: number; T2: number };
   work: { measured: number; u: number; U: number; model: number | null; modelFormula: string; gap: number | null };

@@ -3,12 +3,12 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import type { ChartData, ChartOptions, ScriptableContext } from 'chart.js';
 import { BaseChartDirective } from 'ng2-charts';
 
-import { GammaChoice, PvPoint, arrowStep, idealCurve, measuredPath } from './pv-curves';
+import { GammaChoice, PvPoint, arrowStep, claimedCurve, idealCurve, measuredPath } from './pv-curves';
 import { RUN_CHARTS, themeColor, withAlpha } from './run-charts';
 
-type Layer = 'path' | 'arrows' | 'area' | 'isotherm' | 'adiabat';
+type Layer = 'path' | 'arrows' | 'area' | 'claimed' | 'fitted';
 
-/** The measured P–V path with its direction, the work area under it, and ideal curves through the first state. */
+/** The measured P–V path with its direction, the work area under it, the claimed process and the fitted polytrope through the first state. */
 @Component({
   selector: 'qw-pv-diagram',
   imports: [BaseChartDirective, MatCheckboxModule],
@@ -27,8 +27,7 @@ type Layer = 'path' | 'arrows' | 'area' | 'isotherm' | 'adiabat';
     </div>
     <p class="note">
       Pressure in kPa (absolute) against volume in L. The shaded area under the path is the work the gas does,
-      W = ∫P dV. Ideal curves pass through the first reading; the adiabat uses γ = {{ gamma().gamma.toFixed(3) }}
-      ({{ gamma().source }}).
+      W = ∫P dV. {{ curveNote() }}
     </p>
   `,
   styles: `
@@ -45,32 +44,62 @@ export class PvDiagram {
   readonly pressure = input.required<readonly number[]>();
   /** Volume, m³, per reading. */
   readonly volume = input.required<readonly number[]>();
-  readonly gamma = input.required<GammaChoice>();
+  /** The process the run claims (isobaric, isochoric, isothermal, adiabatic, polytropic, …). */
+  readonly process = input.required<string>();
+  /** γ of the run's gas; null when no gas is modelled. */
+  readonly gamma = input<GammaChoice | null>(null);
+  /** The polytropic index the run claims, if any. */
+  readonly claimedIndex = input<number | null>(null);
+  /** The index fitted to ln P against ln V, if the path allows one. */
+  readonly fittedIndex = input<number | null>(null);
 
   protected readonly layers: readonly { key: Layer; label: string }[] = [
     { key: 'path', label: 'Measured path' },
     { key: 'arrows', label: 'Direction arrows' },
     { key: 'area', label: 'Work area' },
-    { key: 'isotherm', label: 'Ideal isotherm' },
-    { key: 'adiabat', label: 'Ideal adiabat' },
+    { key: 'claimed', label: 'Claimed process' },
+    { key: 'fitted', label: 'Fitted polytrope' },
   ];
   protected readonly shown = signal<Record<Layer, boolean>>({
     path: true,
     arrows: true,
     area: true,
-    isotherm: true,
-    adiabat: true,
+    claimed: true,
+    fitted: true,
   });
 
   private readonly colors = {
     path: themeColor(this.host, '--mat-sys-primary', 'rgb(40, 90, 160)'),
-    isotherm: themeColor(this.host, '--mat-sys-tertiary', 'rgb(120, 80, 150)'),
-    adiabat: themeColor(this.host, '--mat-sys-on-surface-variant', 'rgb(80, 80, 80)'),
+    claimed: themeColor(this.host, '--mat-sys-tertiary', 'rgb(120, 80, 150)'),
+    fitted: themeColor(this.host, '--mat-sys-on-surface-variant', 'rgb(80, 80, 80)'),
     grid: themeColor(this.host, '--mat-sys-outline-variant', 'rgb(200, 200, 200)'),
     text: themeColor(this.host, '--mat-sys-on-surface', 'rgb(20, 20, 20)'),
   };
 
   private readonly path = computed(() => measuredPath(this.pressure(), this.volume()));
+  private readonly claimed = computed(() =>
+    claimedCurve(this.process(), this.path(), this.gamma(), this.claimedIndex(), this.fittedIndex()),
+  );
+
+  /** What the dashed curves are, in words, with γ and where it came from. */
+  protected readonly curveNote = computed(() => {
+    const claimed = this.claimed();
+    const gamma = this.gamma();
+    const fitted = this.fittedIndex();
+    const parts: string[] = [];
+    parts.push(
+      claimed
+        ? `The dashed curve is the ${claimed.label.charAt(0).toLowerCase()}${claimed.label.slice(1)} through the first reading.`
+        : `The claimed process (${this.process()}) has no curve to draw here.`,
+    );
+    if (fitted !== null && Number.isFinite(fitted)) {
+      parts.push(`The dotted curve is the polytrope fitted to the readings, n = ${fitted.toFixed(3)}.`);
+    }
+    if (gamma) {
+      parts.push(`γ = ${gamma.gamma.toFixed(3)} (${gamma.source}).`);
+    }
+    return parts.join(' ');
+  });
 
   protected readonly summary = computed(() => {
     const path = this.path();
@@ -94,6 +123,9 @@ export class PvDiagram {
     const step = arrowStep(path.length);
     const isArrow = (index: number) => shown.arrows && index > 0 && index < path.length - 1 && index % step === 0;
     const canCompare = path.length > 1 && vMax > vMin && path[0].x > 0;
+    const claimed = this.claimed();
+    const raw = this.fittedIndex();
+    const fitted = raw !== null && Number.isFinite(raw) ? raw : null;
     return {
       datasets: [
         {
@@ -112,20 +144,20 @@ export class PvDiagram {
           pointRotation: (context: ScriptableContext<'line'>) => arrowAngle(context, path),
         },
         {
-          label: 'Ideal isotherm (P·V = const)',
-          data: canCompare ? idealCurve(path[0], vMin, vMax, 1) : [],
-          hidden: !shown.isotherm,
-          borderColor: this.colors.isotherm,
+          label: claimed?.label ?? 'Claimed process (no curve)',
+          data: claimed?.points ?? [],
+          hidden: !shown.claimed,
+          borderColor: this.colors.claimed,
           borderDash: [8, 4],
           borderWidth: 1.5,
           pointRadius: 0,
           fill: false,
         },
         {
-          label: `Ideal adiabat (P·V^γ = const)`,
-          data: canCompare ? idealCurve(path[0], vMin, vMax, this.gamma().gamma) : [],
-          hidden: !shown.adiabat,
-          borderColor: this.colors.adiabat,
+          label: fitted === null ? 'Fitted polytrope (none)' : `Fitted polytrope (n = ${fitted.toFixed(3)})`,
+          data: canCompare && fitted !== null ? idealCurve(path[0], vMin, vMax, fitted) : [],
+          hidden: !shown.fitted,
+          borderColor: this.colors.fitted,
           borderDash: [2, 3],
           borderWidth: 1.5,
           pointRadius: 0,

@@ -3,6 +3,7 @@ import type { ChartData, ChartOptions } from 'chart.js';
 import { BaseChartDirective } from 'ng2-charts';
 
 import { RUN_CHARTS, themeColor } from './run-charts';
+import { powerAxisRange } from './time-axes';
 
 /** Temperature and heater power over time, on two axes. */
 @Component({
@@ -57,6 +58,7 @@ export class TimeCharts {
   });
 
   protected readonly options = computed((): ChartOptions<'line'> => {
+    const power = this.power();
     const axis = (text: string, position: 'left' | 'right', display: boolean) => ({
       type: 'linear' as const,
       position,
@@ -72,9 +74,10 @@ export class TimeCharts {
       parsing: false,
       interaction: { mode: 'nearest', intersect: false },
       scales: {
-        x: { type: 'linear', title: { display: true, text: 't / s', color: this.colors.text }, grid: { color: this.colors.grid }, ticks: { color: this.colors.text } },
-        y: axis('T / K', 'left', this.temperature() !== null),
-        y1: axis('P_el / W', 'right', this.power() !== null),
+        x: { type: 'linear', title: { display: true, text: 'Time (s)', color: this.colors.text }, grid: { color: this.colors.grid }, ticks: { color: this.colors.text } },
+        y: axis('Temperature (K)', 'left', this.temperature() !== null),
+        // From 0 W to just above the heater's highest power: its level reads, not the noise on it.
+        y1: { ...axis('Heater power (W)', 'right', power !== null), ...powerAxisRange(power ?? []) },
       },
       plugins: { legend: { labels: { color: this.colors.text } } },
     };
