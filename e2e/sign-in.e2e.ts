@@ -68,7 +68,7 @@ describe('signing in', () => {
     await screenshot(s.page, 'sign-in-wrong-password');
   });
 
-  it('shows the locked message on the sixth wrong try', async () => {
+  it('shows the locked message, with the real wait, once the fifth wrong try locks the account', async () => {
     const email = `lock-${Date.now()}@e2e.test`;
     const handle = createDb(process.env['DATABASE_URL']!, 1);
     await handle.db.insert(people).values({ email, name: 'Lock Check', role: 'technician', passwordHash: await bcrypt.hash('right-password-123', 10) });
@@ -84,9 +84,12 @@ describe('signing in', () => {
       await s.page.getByRole('alert').waitFor();
       messages.push((await s.page.getByRole('alert').textContent()) ?? '');
     }
-    expect(messages[0]).toMatch(/4 attempts left/);
+    // The same answer as for an unknown address until the account is locked (no "attempts left").
+    expect(messages[0]).toMatch(/email or password is not right/);
+    expect(messages[0]).not.toMatch(/attempts left/);
+    expect(messages[4]).toMatch(/locked/i);
     expect(messages[5]).toMatch(/locked/i);
-    expect(messages[5]).toMatch(/Try again after/);
+    expect(messages[5]).toMatch(/Try again after \d\d:\d\d UTC \(in 1[45] minutes\)/);
     await screenshot(s.page, 'sign-in-locked');
   });
 

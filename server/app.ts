@@ -22,7 +22,9 @@ import { isReadingsPut } from './runs/readings-body';
 export function createApp(config: Config, handle: DbHandle, queue: JobQueue | null = null): Express {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // Off unless a setting names the proxy: otherwise any client could choose its address (and its
+  // sign-in limit) with X-Forwarded-For.
+  app.set('trust proxy', config.trustProxy);
 
   // Over plain HTTP on loopback, upgrading requests or pinning HTTPS would break the app.
   app.use(helmet({

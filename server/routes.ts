@@ -23,7 +23,7 @@ export function apiRoutes(db: Database, config: Config, queue: JobQueue | null):
   router.use('/instruments', instrumentsRouter(db));
   router.use('/imports', importsRouter(db, config));
   router.use('/', exportsRouter(db, config));
-  router.use('/audit', auditRouter(db));
+  router.use('/audit', auditRouter(db, config));
   router.use('/people', peopleRouter(db));
   router.use('/projects', projectsRouter(db));
   router.use('/', labRouter(db));

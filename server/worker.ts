@@ -1,4 +1,5 @@
 import type { Database } from '../db/client';
+import { takeCheckpoint } from './audit/audit-checkpoint';
 import { runBalanceCheck, submittedWithoutResult } from './balance/balance-check';
 import type { Config } from './config';
 import { sendCalibrationReminder } from './instruments/calibration-reminder';
@@ -27,5 +28,6 @@ export async function startWorker(db: Database, config: Config, queue: JobQueue,
     async () => void (await sweepUncheckedRuns(db, queue)),
   );
   await queue.scheduleUploadCleanup(async () => void (await purgeStaleUploads(db, config.uploadRetentionDays)));
+  await queue.scheduleCheckpoints(config.checkpointMinutes, async () => void (await takeCheckpoint(db, config, 'schedule')));
   await sweepUncheckedRuns(db, queue);
 }

@@ -5,3 +5,4 @@ export * from './audit';
 export * from './imports';
 export * from './data-versions';
 export * from './standardizations';
+export * from './audit-checkpoints';

@@ -5,9 +5,11 @@ import { auditEvents, people, runs } from '../../db/schema';
 import { requireRole } from '../core/session';
 import { validateQuery } from '../core/validate-query';
 import { AuditQuery } from './audit-dto';
+import type { Config } from '../config';
+import { verifyAuditChain } from './audit-checkpoint';
 import { readableEvents } from './audit-names';
 import { SIGN_IN_ACTIONS } from './audit-readable';
-import { verifyAuditChain } from './audit-service';
+import { auditScope } from './audit-scope';
 
 export function auditFilters(q: AuditQuery): SQL | undefined {
   const filters: SQL[] = [];
@@ -25,13 +27,13 @@ export function auditFilters(q: AuditQuery): SQL | undefined {
   return filters.length ? and(...filters) : undefined;
 }
 
-export function auditRouter(db: Database): Router {
+export function auditRouter(db: Database, config: Config): Router {
   const router = Router();
   const readers = requireRole('quality', 'investigator');
 
   router.get('/', readers, async (req, res) => {
     const q = await validateQuery(AuditQuery, req.query);
-    const where = auditFilters(q);
+    const where = and(auditFilters(q), await auditScope(db, req.person!, q));
     const [items, [{ total }]] = await Promise.all([
       db.select().from(auditEvents).where(where).orderBy(desc(auditEvents.id)).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
       db.select({ total: count() }).from(auditEvents).where(where),
@@ -40,14 +42,14 @@ export function auditRouter(db: Database): Router {
   });
 
   /** People who appear in the trail, so readers can filter by name without the admin-only people list. */
-  router.get('/actors', readers, async (_req, res) => {
+  router.get('/actors', readers, async (req, res) => {
     const items = await db.selectDistinct({ id: people.id, name: people.name, email: people.email })
-      .from(auditEvents).innerJoin(people, eq(people.id, auditEvents.actorId)).orderBy(people.name);
+      .from(auditEvents).innerJoin(people, eq(people.id, auditEvents.actorId)).where(await auditScope(db, req.person!, {})).orderBy(people.name);
     res.json({ items });
   });
 
   router.get('/verify', readers, async (_req, res) => {
-    res.json(await verifyAuditChain(db));
+    res.json(await verifyAuditChain(db, config));
   });
 
   return router;

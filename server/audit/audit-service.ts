@@ -1,5 +1,6 @@
 import { asc, desc, gt, sql } from 'drizzle-orm';
-import type { DbOrTx } from '../../db/client';
+import { isIP } from 'node:net';
+import type { Database, DbOrTx, Tx } from '../../db/client';
 import { auditEvents } from '../../db/schema';
 import { eventHash, GENESIS_HASH, type ChainedFields } from './audit-chain';
 
@@ -16,13 +17,21 @@ export interface AuditInput {
 }
 
 // Serialises writers so that each event links to the one before it.
-const CHAIN_LOCK = 7_004_311;
+export const CHAIN_LOCK = 7_004_311;
+
+/** True for the handle Drizzle passes inside `db.transaction(…)` (it can roll back; a pool cannot). */
+function isTransaction(handle: DbOrTx): handle is Tx {
+  return typeof (handle as Partial<Tx>).rollback === 'function';
+}
 
 /**
  * Appends one event to the trail. Call it with the transaction of the change it records, so that the
- * change and its event commit or roll back together.
+ * change and its event commit or roll back together. Only a transaction can hold the chain's lock
+ * until its commit; outside one the lock would be released at once and two writers could link to
+ * the same predecessor (a fork), so a pool handle is refused.
  */
-export async function recordAudit(tx: DbOrTx, input: AuditInput): Promise<void> {
+export async function recordAudit(tx: Tx, input: AuditInput): Promise<void> {
+  if (!isTransaction(tx)) throw new Error('recordAudit needs a transaction: use recordAuditAlone for an event that records no other change');
   await tx.execute(sql`SELECT pg_advisory_xact_lock(${CHAIN_LOCK})`);
   const [last] = await tx.select({ hash: auditEvents.hash }).from(auditEvents).orderBy(desc(auditEvents.id)).limit(1);
   const fields: ChainedFields = {
@@ -35,42 +44,92 @@ export async function recordAudit(tx: DbOrTx, input: AuditInput): Promise<void> 
     before: input.before ?? null,
     after: input.after ?? null,
     reason: input.reason ?? null,
-    ip: input.ip ?? null,
+    // Only a well-formed address is kept: never header text a client chose.
+    ip: input.ip && isIP(input.ip) ? input.ip : null,
     prevHash: last?.hash ?? GENESIS_HASH,
   };
   await tx.insert(auditEvents).values({ ...fields, hash: eventHash(fields) });
 }
 
+/** An event that records no other change (a refused sign-in, say), in a transaction of its own. */
+export async function recordAuditAlone(db: Database, input: AuditInput): Promise<void> {
+  await db.transaction((tx) => recordAudit(tx, input));
+}
+
+export interface ChainBreak {
+  id: number;
+  reason: string;
+}
+
+/** How the trail compares with the latest signed checkpoint of its head (audit-checkpoint.ts). */
+export interface CheckpointCheck {
+  id: number;
+  takenAt: string;
+  eventCount: number;
+  headId: number;
+  headHash: string;
+  keyId: string;
+  /** Ed25519 signature (base64) over the checkpoint's statement (audit-checkpoint.ts). */
+  signature: string;
+  /** Where the checkpoint was read: the database's table, or the file kept outside it. */
+  source: 'database' | 'file';
+  holds: boolean;
+  reason?: string;
+}
+
 export interface ChainCheck {
   valid: boolean;
   checked: number;
+  /** The newest event's id and hash (absent for an empty trail). */
+  head?: { id: number; hash: string };
   /** The first event whose link does not hold, and why. */
-  firstBroken?: { id: number; reason: string };
+  firstBroken?: ChainBreak;
+  /** How many events' links or contents do not hold. */
+  brokenCount: number;
+  /** The first MAX_LISTED of them, in id order. */
+  broken: ChainBreak[];
+  /** The latest checkpoint and whether the trail still reaches it; absent when none was taken yet. */
+  checkpoint?: CheckpointCheck;
 }
 
-/** Walks the whole chain in id order, in pages, recomputing every hash. */
-export async function verifyAuditChain(db: DbOrTx, pageSize = 5000): Promise<ChainCheck> {
+export const MAX_LISTED_BREAKS = 100;
+
+const LINK_BROKEN = 'its link to the previous event does not match: an event before it was removed or altered, or two events were written on the same predecessor';
+const CONTENT_ALTERED = 'its content does not match its hash: the event was altered after it was written';
+
+/**
+ * Walks the whole chain in id order, in pages, recomputing every hash, and names every break (not
+ * only the first: a later tampered event stays visible behind an earlier one).
+ */
+export async function walkAuditChain(db: DbOrTx, pageSize = 5000): Promise<ChainCheck> {
   let prev = GENESIS_HASH;
   let afterId = 0;
   let checked = 0;
+  let head: ChainCheck['head'];
+  const broken: ChainBreak[] = [];
+  let brokenCount = 0;
+  const note = (b: ChainBreak) => {
+    brokenCount += 1;
+    if (broken.length < MAX_LISTED_BREAKS) broken.push(b);
+  };
   for (;;) {
     const page = await db.select().from(auditEvents).where(gt(auditEvents.id, afterId)).orderBy(asc(auditEvents.id)).limit(pageSize);
-    if (page.length === 0) return { valid: true, checked };
+    if (page.length === 0) break;
     for (const row of page) {
-      if (row.prevHash !== prev) {
-        return { valid: false, checked, firstBroken: { id: row.id, reason: 'its link to the previous event does not match: an event before it was removed or altered' } };
-      }
       const expected = eventHash({
         occurredAt: row.occurredAt, actorId: row.actorId, actorEmail: row.actorEmail, action: row.action,
         entityType: row.entityType, entityId: row.entityId, before: row.before, after: row.after,
         reason: row.reason, ip: row.ip, prevHash: row.prevHash,
       });
-      if (row.hash !== expected) {
-        return { valid: false, checked, firstBroken: { id: row.id, reason: 'its content does not match its hash: the event was altered after it was written' } };
-      }
+      if (row.hash !== expected) note({ id: row.id, reason: CONTENT_ALTERED });
+      else if (row.prevHash !== prev) note({ id: row.id, reason: LINK_BROKEN });
+      // The walk goes on from the stored hash, so each later break is named on its own.
       prev = row.hash;
       afterId = row.id;
       checked += 1;
+      head = { id: row.id, hash: row.hash };
     }
+    if (page.length < pageSize) break;
   }
+  return { valid: brokenCount === 0, checked, head, brokenCount, broken, ...(broken[0] ? { firstBroken: broken[0] } : {}) };
 }

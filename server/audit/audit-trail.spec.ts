@@ -1,9 +1,10 @@
 import { eq, sql } from 'drizzle-orm';
 import postgres from 'postgres';
-import { join } from 'node:path';
 import { auditEvents } from '../../db/schema';
+import { ownerDatabaseUrl } from '../config';
 import { clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
-import { recordAudit, verifyAuditChain } from './audit-service';
+import { verifyAuditChain as verifyWith } from './audit-checkpoint';
+import { recordAuditAlone as recordAudit } from './audit-service';
 
 let h: ApiHarness;
 beforeAll(async () => {
@@ -11,23 +12,27 @@ beforeAll(async () => {
 });
 afterAll(() => h.close());
 
-/** A superuser connection over the cluster's own socket (tools/pg keeps it under .data/pg). */
+const verifyAuditChain = (db: ApiHarness['handle']['db']) => verifyWith(db, h.config);
+
+/** The owner role (tools/pg owner-url): it owns the table and may step behind its trigger, as an attacker with it could. */
 function superuser(): postgres.Sql {
-  const dir = process.env['QWELL_PG_DIR'] ?? join(__dirname, '..', '..', '.data', 'pg');
-  const port = Number(process.env['QWELL_PG_PORT'] ?? 54329);
-  const database = new URL(process.env['DATABASE_URL']!).pathname.slice(1);
-  return postgres({ path: join(dir, `.s.PGSQL.${port}`), user: 'postgres', database, onnotice: () => undefined, max: 1 });
+  return postgres(ownerDatabaseUrl(), { onnotice: () => undefined, max: 1 });
 }
 
 describe('the audit trail', () => {
-  it('is refused UPDATE, DELETE and TRUNCATE by the database, for the app\'s own role', async () => {
+  it('is refused UPDATE, DELETE and TRUNCATE by the database (its trigger, for the owner too)', async () => {
     await recordAudit(h.handle.db, { action: 'test.event', entityType: 'test', after: { n: 1 } });
     const [last] = await h.handle.db.select().from(auditEvents).orderBy(sql`id desc`).limit(1);
-    // Drizzle wraps the database's error; the trigger's message is its cause.
-    const refusal = (q: Promise<unknown>) => q.then(() => 'allowed', (e: Error & { cause?: Error }) => e.cause?.message ?? e.message);
-    expect(await refusal(h.handle.db.update(auditEvents).set({ reason: 'edited' }).where(eq(auditEvents.id, last.id)))).toBe('audit_events is append-only: UPDATE is refused');
-    expect(await refusal(h.handle.db.delete(auditEvents).where(eq(auditEvents.id, last.id)))).toBe('audit_events is append-only: DELETE is refused');
-    expect(await refusal(h.handle.db.execute(sql`TRUNCATE audit_events`))).toBe('audit_events is append-only: TRUNCATE is refused');
+    const su = superuser();
+    try {
+      const refusal = (q: Promise<unknown>) => q.then(() => 'allowed', (e: Error) => e.message);
+      expect(await refusal(su`UPDATE audit_events SET reason = 'edited' WHERE id = ${last.id}`)).toBe('audit_events is append-only: UPDATE is refused');
+      expect(await refusal(su`DELETE FROM audit_events WHERE id = ${last.id}`)).toBe('audit_events is append-only: DELETE is refused');
+      expect(await refusal(su`TRUNCATE audit_events`)).toBe('audit_events is append-only: TRUNCATE is refused');
+      expect(await refusal(su`TRUNCATE audit_checkpoints`)).toBe('audit_checkpoints is append-only: TRUNCATE is refused');
+    } finally {
+      await su.end();
+    }
     const [still] = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.id, last.id));
     expect(still.reason).toBeNull();
   });

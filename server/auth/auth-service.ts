@@ -2,76 +2,78 @@ import bcrypt from 'bcryptjs';
 import { eq, sql } from 'drizzle-orm';
 import type { Database } from '../../db/client';
 import { people } from '../../db/schema';
-import { recordAudit } from '../audit/audit-service';
+import { recordAudit, recordAuditAlone } from '../audit/audit-service';
 import type { Config } from '../config';
 import { HttpProblem } from '../core/problem';
 import type { SessionPerson } from '../core/session';
+import { dummyPasswordHash, lockedProblem, reserveAttempt, settleFailure, settleSuccess } from './password-attempts';
 
-// Compared against when the address is unknown, so both paths take a bcrypt's time.
-const DUMMY_HASH = bcrypt.hashSync('qwell-no-such-person', 10);
-export const BCRYPT_COST = 12;
+export { BCRYPT_COST } from './password-attempts';
 
-const wrongCredentials = (detail: string) => new HttpProblem(401, 'Sign-in failed', detail);
-
-function lockedProblem(until: Date): HttpProblem {
-  const time = until.toISOString().slice(11, 16);
-  return new HttpProblem(
-    423,
-    'Account locked',
-    `This account is locked after too many failed sign-ins. Try again after ${time} UTC, or ask an administrator to unlock it.`,
-    undefined,
-    { lockedUntil: until.toISOString() },
-  );
+/**
+ * The one answer to an unknown address, an inactive account and a wrong password alike, so the answer
+ * never tells whether an address has an account. Only a locked account answers otherwise (423).
+ */
+export function signInFailedText(s: Pick<Config, 'lockoutAttempts' | 'lockoutMinutes'>): string {
+  return `The email or password is not right. After ${s.lockoutAttempts} failed attempts in a row an account locks for ${s.lockoutMinutes} minutes.`;
 }
 
 export class AuthService {
   constructor(private readonly db: Database, private readonly config: Config) {}
+
+  private wrongCredentials(): HttpProblem {
+    return new HttpProblem(401, 'Sign-in failed', signInFailedText(this.config));
+  }
 
   async signIn(emailInput: string, password: string, ip: string | null): Promise<SessionPerson> {
     const email = emailInput.trim().toLowerCase();
     const [person] = await this.db.select().from(people).where(eq(people.email, email));
 
     if (!person || !person.active) {
-      await bcrypt.compare(password, DUMMY_HASH);
-      await recordAudit(this.db, { actorEmail: email, action: 'auth.sign-in-failed', entityType: 'person', reason: 'unknown or inactive address', ip });
-      throw wrongCredentials('The email or password is not right.');
+      // The same bcrypt cost as a real hash, so the time taken does not tell either.
+      await bcrypt.compare(password, dummyPasswordHash());
+      await recordAuditAlone(this.db, {
+        actorId: person?.id ?? null, actorEmail: email, action: 'auth.sign-in-failed', entityType: 'person', entityId: person?.id ?? null,
+        reason: person ? 'inactive account' : 'unknown address', ip,
+      });
+      throw this.wrongCredentials();
     }
 
-    const now = new Date();
-    if (person.lockedUntil && person.lockedUntil > now) {
-      await recordAudit(this.db, { actorId: person.id, actorEmail: email, action: 'auth.sign-in-refused', entityType: 'person', entityId: person.id, reason: 'account locked', ip });
-      throw lockedProblem(person.lockedUntil);
+    // Counted before the password is compared; a locked account's password is never compared.
+    const reservation = await reserveAttempt(this.db, person.id, this.config);
+    if (!reservation || reservation.kind === 'locked') {
+      const until = reservation?.until ?? new Date();
+      await this.db.transaction(async (tx) => {
+        if (reservation?.lockedNow) {
+          await recordAudit(tx, { actorId: person.id, actorEmail: email, action: 'auth.account-locked', entityType: 'person', entityId: person.id, after: { lockedUntil: until }, reason: 'more password attempts at once than the limit', ip });
+        }
+        await recordAudit(tx, { actorId: person.id, actorEmail: email, action: 'auth.sign-in-refused', entityType: 'person', entityId: person.id, reason: 'account locked', ip });
+      });
+      throw lockedProblem(until);
     }
 
     if (!(await bcrypt.compare(password, person.passwordHash))) {
-      // The counter and its audit events commit first; the refusal is thrown after the transaction.
-      const outcome = await this.db.transaction(async (tx) => {
-        const { lockoutAttempts, lockoutMinutes } = this.config;
-        // One statement, so two wrong tries at the same moment both count.
-        const [after] = await tx
-          .update(people)
-          .set({
-            failedAttempts: sql`CASE WHEN ${people.failedAttempts} + 1 >= ${lockoutAttempts} THEN 0 ELSE ${people.failedAttempts} + 1 END`,
-            lockedUntil: sql`CASE WHEN ${people.failedAttempts} + 1 >= ${lockoutAttempts} THEN now() + make_interval(mins => ${lockoutMinutes}) ELSE ${people.lockedUntil} END`,
-          })
-          .where(eq(people.id, person.id))
-          .returning({ failedAttempts: people.failedAttempts, lockedUntil: people.lockedUntil });
-        const lockedNow = after.lockedUntil !== null && after.lockedUntil > now;
+      const lockedUntil = await this.db.transaction(async (tx) => {
+        const locked = await settleFailure(tx, person.id, reservation.attempt, this.config);
         await recordAudit(tx, { actorId: person.id, actorEmail: email, action: 'auth.sign-in-failed', entityType: 'person', entityId: person.id, reason: 'wrong password', ip });
-        if (lockedNow) {
-          await recordAudit(tx, { actorId: person.id, actorEmail: email, action: 'auth.account-locked', entityType: 'person', entityId: person.id, after: { lockedUntil: after.lockedUntil }, reason: `${lockoutAttempts} failed sign-ins`, ip });
-          return `The email or password is not right. The account is now locked for ${lockoutMinutes} minutes.`;
+        if (locked) {
+          await recordAudit(tx, { actorId: person.id, actorEmail: email, action: 'auth.account-locked', entityType: 'person', entityId: person.id, after: { lockedUntil: locked }, reason: `${this.config.lockoutAttempts} failed password attempts`, ip });
         }
-        const left = lockoutAttempts - after.failedAttempts;
-        return `The email or password is not right. ${left} ${left === 1 ? 'attempt' : 'attempts'} left before the account locks for ${lockoutMinutes} minutes.`;
+        return locked;
       });
-      throw wrongCredentials(outcome);
+      throw lockedUntil ? lockedProblem(lockedUntil) : this.wrongCredentials();
     }
 
-    await this.db.transaction(async (tx) => {
-      await tx.update(people).set({ failedAttempts: 0, lockedUntil: null }).where(eq(people.id, person.id));
+    const lockedMeanwhile = await this.db.transaction(async (tx) => {
+      const locked = await settleSuccess(tx, person.id);
+      if (locked) {
+        await recordAudit(tx, { actorId: person.id, actorEmail: email, action: 'auth.sign-in-refused', entityType: 'person', entityId: person.id, reason: 'account locked while the password was checked', ip });
+        return locked;
+      }
       await recordAudit(tx, { actorId: person.id, actorEmail: email, action: 'auth.sign-in', entityType: 'person', entityId: person.id, ip });
+      return null;
     });
+    if (lockedMeanwhile) throw lockedProblem(lockedMeanwhile);
     return { id: person.id, email: person.email, name: person.name, role: person.role };
   }
 

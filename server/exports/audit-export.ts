@@ -1,6 +1,9 @@
 import type { Database } from '../../db/client';
 import { auditFilters } from '../audit/audit-router';
-import { recordAudit, verifyAuditChain } from '../audit/audit-service';
+import { and } from 'drizzle-orm';
+import { takeCheckpoint, verifyAuditChain } from '../audit/audit-checkpoint';
+import { auditScope, INVESTIGATOR_SCOPE } from '../audit/audit-scope';
+import { recordAudit } from '../audit/audit-service';
 import type { Config } from '../config';
 import type { SessionPerson } from '../core/session';
 import { writeAuditCsv } from './audit-csv';
@@ -36,11 +39,16 @@ export function auditFileName(at: Date, format: AuditExportFormat): string {
  * however many events are written meanwhile. Then the export records itself, in its own transaction.
  */
 export async function buildAuditExport(db: Database, config: Config, person: SessionPerson, q: AuditExportQuery, path: string, ip: string | null): Promise<BuiltExport> {
-  const where = auditFilters(q);
+  // Scoped exactly like GET /api/audit (and run reads): an investigator exports their projects' events.
+  const scope = await auditScope(db, person, q);
+  const where = and(auditFilters(q), scope);
   const filters = setFilters(q);
+  if (scope) filters['scope'] = INVESTIGATOR_SCOPE;
+  // Every export anchors the head first; the snapshot below compares the trail with that checkpoint.
+  await takeCheckpoint(db, config, 'export');
   const generatedAt = new Date();
   const header = await db.transaction(async (tx) => {
-    const chain = await verifyAuditChain(tx);
+    const chain = await verifyAuditChain(tx, config);
     const hasher = new RowsHasher();
     for await (const page of eventPages(tx, where)) for (const row of page) hasher.add(row);
     const head: AuditExportHeader = {
@@ -58,7 +66,8 @@ export async function buildAuditExport(db: Database, config: Config, person: Ses
       actorId: person.id, actorEmail: person.email, action: 'audit.export', entityType: 'audit', ip,
       after: {
         format: q.format, filters, rows: header.rows, rowsSha256: header.rowsSha256, sha256: sha256.hex,
-        chainValid: header.chain.valid, chainChecked: header.chain.checked, ...(header.chain.firstBroken ? { firstBroken: header.chain.firstBroken.id } : {}),
+        chainValid: header.chain.valid, chainChecked: header.chain.checked, ...(header.chain.firstBroken ? { firstBroken: header.chain.firstBroken.id, brokenCount: header.chain.brokenCount } : {}),
+        ...(header.chain.checkpoint ? { checkpoint: header.chain.checkpoint.id, checkpointHolds: header.chain.checkpoint.holds } : {}),
       },
     });
   });

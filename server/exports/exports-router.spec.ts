@@ -3,7 +3,7 @@ import { and, desc, eq, lte } from 'drizzle-orm';
 import ExcelJS from 'exceljs';
 import { createHash } from 'node:crypto';
 import { auditEvents, runs } from '../../db/schema';
-import { recordAudit } from '../audit/audit-service';
+import { recordAuditAlone } from '../audit/audit-service';
 import { canonicalJson } from '../core/canonical-json';
 import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
 import { pdfPageCount, pdfTextRuns } from './pdf-text';
@@ -97,7 +97,7 @@ describe('GET /api/audit/export?format=csv', () => {
     const hostile = ['=HYPERLINK("http://x")', '@SUM(1)', '-2+3', '\t=1', 'plain, with "quotes"\r\nand a line break'];
     // An action of its own, so that events of earlier runs against the same database do not count.
     const action = `test.hostile.${Array.from({ length: 10 }, () => String.fromCharCode(97 + Math.floor(Math.random() * 26))).join('')}`;
-    for (const reason of hostile) await recordAudit(h.handle.db, { action, entityType: 'test', entityId: 7, reason, after: { n: -5 } });
+    for (const reason of hostile) await recordAuditAlone(h.handle.db, { action, entityType: 'test', entityId: 7, reason, after: { n: -5 } });
     const investigator = await clientAs(h.app, 'investigator');
     const { res, body } = await download(investigator, `/api/audit/export?format=csv&action=${action}&entityType=test`);
     expect(res.status).toBe(200);

@@ -9,6 +9,17 @@ export function neutraliseCell(text: string): string {
   return DANGEROUS_START.test(text) ? `'${text}` : text;
 }
 
+// A spreadsheet opened with another list separator (";" in much of Europe, or a tab) splits an
+// unquoted cell at it, and one that ignores quotes splits a quoted cell there too: what follows a
+// separator or a quote boundary then starts a cell of its own. OWASP's guidance neutralises those
+// starts as well. "=" and "@" always start a formula; "+" and "-" only when not a plain number.
+const SPLIT_THEN_FORMULA = /([,;\t\r\n"]\s*)(?=[=@]|[+-](?!\d+(?:\.\d+)?(?:[eE][+-]?\d+)?(?:$|[,;\]}"\s])))/g;
+
+/** CSV text: the cell's start neutralised, and every start a split at a separator could make. */
+export function neutraliseCsvText(text: string): string {
+  return neutraliseCell(text).replace(SPLIT_THEN_FORMULA, "$1'");
+}
+
 /** True when the export changed the text (for the header note and tests). */
 export function isNeutralised(original: string, written: string): boolean {
   return original !== written;
@@ -16,12 +27,14 @@ export function isNeutralised(original: string, written: string): boolean {
 
 export type CellValue = string | number | null;
 
-/** One RFC 4180 field: text neutralised, then quoted when it holds a quote, comma, CR or LF. */
+/**
+ * One RFC 4180 field: text neutralised, then always quoted (quotes doubled), so no reader splits it
+ * whatever its list separator. Numbers stay bare numbers; an empty cell stays empty.
+ */
 export function csvField(value: CellValue): string {
   if (value === null) return '';
   if (typeof value === 'number') return Number.isFinite(value) ? String(value) : '';
-  const safe = neutraliseCell(value);
-  return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+  return `"${neutraliseCsvText(value).replace(/"/g, '""')}"`;
 }
 
 /** One RFC 4180 record, ended by CRLF. */

@@ -4,6 +4,7 @@ export const BALANCE_QUEUE = 'balance-check';
 export const CALIBRATION_DUE_QUEUE = 'calibration-due';
 export const SWEEP_QUEUE = 'balance-sweep';
 export const UPLOAD_CLEANUP_QUEUE = 'upload-cleanup';
+export const CHECKPOINT_QUEUE = 'audit-checkpoint';
 
 export interface BalanceJob {
   runId: number;
@@ -36,6 +37,7 @@ export class JobQueue {
     await this.boss.createQueue(CALIBRATION_DUE_QUEUE, { name: CALIBRATION_DUE_QUEUE, policy: 'standard', retryLimit: 2 });
     await this.boss.createQueue(SWEEP_QUEUE, { name: SWEEP_QUEUE, policy: 'standard' });
     await this.boss.createQueue(UPLOAD_CLEANUP_QUEUE, { name: UPLOAD_CLEANUP_QUEUE, policy: 'standard' });
+    await this.boss.createQueue(CHECKPOINT_QUEUE, { name: CHECKPOINT_QUEUE, policy: 'standard' });
   }
 
   /** One job per run version: queuing the same check twice is a no-op. */
@@ -59,6 +61,13 @@ export class JobQueue {
   async scheduleUploadCleanup(cleanup: () => Promise<void>): Promise<void> {
     await this.boss.schedule(UPLOAD_CLEANUP_QUEUE, '0 3 * * *', {}, { tz: 'UTC' });
     await this.boss.work(UPLOAD_CLEANUP_QUEUE, async () => cleanup());
+  }
+
+  /** A signed checkpoint of the audit trail's head every `minutes` minutes (audit-checkpoint.ts). */
+  async scheduleCheckpoints(minutes: number, take: () => Promise<void>): Promise<void> {
+    const every = Math.min(59, Math.max(1, minutes));
+    await this.boss.schedule(CHECKPOINT_QUEUE, `*/${every} * * * *`, {}, { tz: 'UTC' });
+    await this.boss.work(CHECKPOINT_QUEUE, async () => take());
   }
 
   async stop(): Promise<void> {

@@ -4,7 +4,8 @@ import { join } from 'node:path';
 import { count } from 'drizzle-orm';
 import { createDb } from '../../db/client';
 import { auditEvents, readings, runs } from '../../db/schema';
-import { recordAudit, verifyAuditChain } from '../audit/audit-service';
+import { verifyAuditChain } from '../audit/audit-checkpoint';
+import { recordAuditAlone } from '../audit/audit-service';
 import { startHarness, type ApiHarness } from '../testing/api-harness';
 
 const root = join(__dirname, '..', '..');
@@ -18,7 +19,7 @@ afterAll(() => h.close());
 
 describe('tools/backup and tools/restore', () => {
   it('restore into a fresh database with the same rows and a valid audit chain', async () => {
-    await recordAudit(h.handle.db, { action: 'test.before-backup', entityType: 'test' });
+    await recordAuditAlone(h.handle.db, { action: 'test.before-backup', entityType: 'test' });
     const source = new URL(process.env['DATABASE_URL']!).pathname.slice(1);
     const file = join(root, '.data', 'backups', `${source}-spec-${Date.now()}.dump`);
     const target = `${source}_restored_${Date.now()}`;
@@ -34,7 +35,7 @@ describe('tools/backup and tools/restore', () => {
           const [{ n: b }] = await restored.db.select({ n: count() }).from(table);
           expect(b).toBe(a);
         }
-        const check = await verifyAuditChain(restored.db);
+        const check = await verifyAuditChain(restored.db, h.config);
         expect(check.valid).toBe(true);
         expect(check.checked).toBeGreaterThan(5);
       } finally {

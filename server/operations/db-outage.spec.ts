@@ -42,7 +42,7 @@ beforeAll(async () => {
   pg('up');
   const url = pg('url');
   execFileSync(join(root, 'node_modules/.bin/tsx'), ['--tsconfig', 'tsconfig.server.json', 'db/migrate.ts'], {
-    cwd: root, env: { ...process.env, DATABASE_URL: url }, stdio: 'ignore',
+    cwd: root, env: { ...process.env, DATABASE_URL: url, DATABASE_OWNER_URL: pg('owner-url') }, stdio: 'ignore',
   });
   // One person to sign in with, so that calls past the session reader reach the database.
   const sql = postgres(url, { max: 1, onnotice: () => undefined });

@@ -1,7 +1,7 @@
 import { and, count, eq, sql } from 'drizzle-orm';
 import { auditEvents, balanceResults, imports, projects } from '../../db/schema';
 import { csv, importCounts, uploadFile } from '../imports/import-spec-support';
-import { verifyAuditChain } from '../audit/audit-service';
+import { verifyAuditChain } from '../audit/audit-checkpoint';
 import { ApiClient, eventually, startHarness, type ApiHarness } from '../testing/api-harness';
 import { loadFixture, runBodies } from '../testing/fixture-runs';
 import { startQwellProcess, type QwellProcess } from '../testing/qwell-process';
@@ -78,7 +78,7 @@ describe('several processes on one database', () => {
     expect(await results(runId)).toBe(1);
     const checked = await h.handle.db.select().from(auditEvents).where(and(eq(auditEvents.action, 'run.checked'), eq(auditEvents.entityId, String(runId))));
     expect(checked).toHaveLength(1);
-    expect((await verifyAuditChain(h.handle.db)).valid).toBe(true);
+    expect((await verifyAuditChain(h.handle.db, h.config)).valid).toBe(true);
   });
 
   it('leaves no partial run when the API process is killed with SIGKILL in the middle of an import commit', async () => {
@@ -110,6 +110,6 @@ describe('several processes on one database', () => {
       expect(res.status).toBe(201);
       expect(res.body.readings).toBe(N);
     }
-    expect((await verifyAuditChain(h.handle.db)).valid).toBe(true);
+    expect((await verifyAuditChain(h.handle.db, h.config)).valid).toBe(true);
   });
 });

@@ -1,5 +1,6 @@
 import { and, eq, sql } from 'drizzle-orm';
 import type { Database } from '../../db/client';
+import type { Config } from '../config';
 import { balanceResults, people, runs, signatures } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
 import { badRequest, conflict } from '../core/problem';
@@ -20,7 +21,7 @@ export const MIN_JUSTIFICATION = 20;
 const pastTense: Record<ReviewAction, string> = { approve: 'approved', return: 'returned for correction', reject: 'rejected' };
 
 export class ReviewService {
-  constructor(private readonly db: Database, private readonly publicUrl = '') {}
+  constructor(private readonly db: Database, private readonly config: Config) {}
 
   /**
    * Approve, return or reject with an electronic signature: the password again, the meaning, and for
@@ -34,7 +35,10 @@ export class ReviewService {
     if ((action === 'return' || action === 'reject') && reason.length < 5) {
       throw badRequest(`Say why the run is ${pastTense[action]} (reason, at least 5 characters).`, [{ field: 'reason', message: 'required' }]);
     }
-    await checkSignerPassword(this.db, person, body.password, { type: 'run', id }, ip);
+    // The run must exist and be the signer's to decide before the password is compared, so a guess at
+    // a run that is not there (or not theirs) learns nothing about the password.
+    await loadRunFor(this.db, person, id, action, body.version);
+    await checkSignerPassword(this.db, person, body.password, { type: 'run', id }, ip, this.config);
 
     const outcome = await this.db.transaction(async (tx) => {
       // The row lock makes two simultaneous decisions queue up: the second finds the run decided.
@@ -63,7 +67,7 @@ export class ReviewService {
       await queueMail(tx, [{
         to: author.email,
         subject: `Run ${run.code} ${pastTense[action]}`,
-        body: `${person.name} ${pastTense[action]} run ${run.code} "${run.title}".${reason ? `\nReason: ${reason}` : ''}\nSignature: ${body.meaning} (SHA-256 ${hash}).${this.publicUrl ? `\nOpen the run: ${runLink(this.publicUrl, id)}` : ''}`,
+        body: `${person.name} ${pastTense[action]} run ${run.code} "${run.title}".${reason ? `\nReason: ${reason}` : ''}\nSignature: ${body.meaning} (SHA-256 ${hash}).${this.config.publicUrl ? `\nOpen the run: ${runLink(this.config.publicUrl, id)}` : ''}`,
       }]);
       return { run: after, signature };
     });

@@ -22,7 +22,7 @@ const AUTHORS = ['technician', 'assistant', 'investigator'] as const;
 
 export function runsRouter(db: Database, config: Config, queue: JobQueue | null): Router {
   const service = new RunsService(db, config, queue);
-  const review = new ReviewService(db, config.publicUrl);
+  const review = new ReviewService(db, config);
   // The list and the stored results are read far more often than runs change.
   const reads = new ReadCache(2000, config.readCache);
   const router = Router();

@@ -1,7 +1,7 @@
 import { and, asc, count, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Database, DbOrTx } from '../../db/client';
 import { apparatus, auditEvents, balanceResults, gases, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
-import { recordAudit } from '../audit/audit-service';
+import { recordAudit, recordAuditAlone } from '../audit/audit-service';
 import type { Config } from '../config';
 import { badRequest, forbidden } from '../core/problem';
 import type { SessionPerson } from '../core/session';
@@ -242,7 +242,7 @@ export class RunsService {
   async document(person: SessionPerson, id: number) {
     const run = await loadVisibleRun(this.db, person, id);
     const doc = await loadRunDocument(this.db, run, this.config.labName);
-    await recordAudit(this.db, { actorId: person.id, actorEmail: person.email, action: 'run.export', entityType: 'run', entityId: id, after: { format: 'qwell.run', sha256: sha256Canonical(doc) } });
+    await recordAuditAlone(this.db, { actorId: person.id, actorEmail: person.email, action: 'run.export', entityType: 'run', entityId: id, after: { format: 'qwell.run', sha256: sha256Canonical(doc) } });
     return doc;
   }
 
