@@ -60,9 +60,9 @@ export async function reserveAttempt(db: Database, personId: number, s: LockoutS
     failedAttempts: sql`CASE WHEN ${people.failedAttempts} >= ${s.lockoutAttempts} THEN 0 ELSE ${people.failedAttempts} + 1 END`,
     lockedUntil: sql`CASE WHEN ${people.failedAttempts} >= ${s.lockoutAttempts} THEN now() + make_interval(mins => ${s.lockoutMinutes}) ELSE ${people.lockedUntil} END`,
   }).where(and(eq(people.id, personId), notLocked))
-    .returning({ failedAttempts: people.failedAttempts, lockedUntil: people.lockedUntil, now: sql<Date>`now()` });
+    .returning({ failedAttempts: people.failedAttempts, lockedUntil: people.lockedUntil, lockedNow: sql<boolean>`${people.lockedUntil} IS NOT NULL AND ${people.lockedUntil} > now()` });
   if (row) {
-    if (row.lockedUntil && row.lockedUntil > row.now) return { kind: 'locked', until: row.lockedUntil, lockedNow: true };
+    if (row.lockedNow && row.lockedUntil) return { kind: 'locked', until: row.lockedUntil, lockedNow: true };
     return { kind: 'reserved', attempt: row.failedAttempts };
   }
   const [current] = await db.select({ lockedUntil: people.lockedUntil }).from(people).where(eq(people.id, personId));

@@ -98,7 +98,8 @@ describe('GET /api/audit/export?format=csv', () => {
     // An action of its own, so that events of earlier runs against the same database do not count.
     const action = `test.hostile.${Array.from({ length: 10 }, () => String.fromCharCode(97 + Math.floor(Math.random() * 26))).join('')}`;
     for (const reason of hostile) await recordAuditAlone(h.handle.db, { action, entityType: 'test', entityId: 7, reason, after: { n: -5 } });
-    const investigator = await clientAs(h.app, 'investigator');
+    // The quality officer sees the whole trail; an investigator's export holds their projects' events only.
+    const investigator = await clientAs(h.app, 'quality');
     const { res, body } = await download(investigator, `/api/audit/export?format=csv&action=${action}&entityType=test`);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('text/csv; charset=utf-8');
@@ -114,7 +115,7 @@ describe('GET /api/audit/export?format=csv', () => {
     expect(events.map((r) => r[6])).toEqual(hostile.map((s) => (/^[=+\-@\t\r]/.test(s) ? `'${s}` : s)));
     expect(events.every((r) => /^\d+$/.test(r[0]))).toBe(true); // ids are bare numbers, not quoted text
     expect(events.map((r) => r[8])).toEqual(hostile.map(() => '{"n":-5}'));
-    expect(text).toContain(`\r\n${events[0][0]},`); // the id is written unquoted and unprefixed
+    expect(text).toContain(`\r\n${events[0][0]},"`); // the id is written unquoted and unprefixed; text is always quoted
 
     const header = new Map(records.slice(0, namesAt).filter((r) => r.length === 2).map((r) => [r[0], r[1]]));
     const expected = await expectedRows(eq(auditEvents.action, action), Number(events[events.length - 1][0]));

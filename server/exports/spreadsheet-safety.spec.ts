@@ -28,7 +28,8 @@ describe('CSV fields (RFC 4180)', () => {
     expect(csvField(null)).toBe('');
   });
 
-  it('quotes fields with commas, quotes and line breaks, doubling the quotes', () => {
+  it('quotes every text field, doubling the quotes', () => {
+    expect(csvField('plain')).toBe('"plain"');
     expect(csvField('a,b')).toBe('"a,b"');
     expect(csvField('say "hi"')).toBe('"say ""hi"""');
     expect(csvField('two\r\nlines')).toBe('"two\r\nlines"');
@@ -36,6 +37,32 @@ describe('CSV fields (RFC 4180)', () => {
 
   it('neutralises before quoting, and ends each record with CRLF', () => {
     expect(csvField('=1,2')).toBe('"\'=1,2"');
-    expect(csvRecord([1, '@x', 'ok'])).toBe("1,'@x,ok\r\n");
+    expect(csvRecord([1, '@x', 'ok'])).toBe('1,"\'@x","ok"\r\n');
+  });
+});
+
+// OWASP, "CSV Injection": a spreadsheet opened with ";" (or tab) as its list separator splits a field
+// there, and one that ignores quotes splits at a quote too; a formula may then start a new cell.
+describe('CSV text split at another separator', () => {
+  it('neutralises the e-mail typed at sign-in that became a formula cell with ";" as separator', () => {
+    const typed = "a;=cmd|' /C calc'!A0;";
+    const field = csvField(typed);
+    expect(field).toBe(`"a;'=cmd|' /C calc'!A0;"`);
+    // Split the way a ";"-separated reader that ignores the quotes would: no piece starts a formula.
+    for (const piece of field.split(';')) expect(piece.replace(/^"+/, '')).not.toMatch(/^[=+\-@\t\r]/);
+  });
+
+  it.each([
+    ['x";=1+2', 'x"";\'=1+2'],
+    ['a,@SUM(1)', "a,'@SUM(1)"],
+    ['a\t-cmd', "a\t'-cmd"],
+    ['a; +HYPERLINK(1)', "a; '+HYPERLINK(1)"],
+  ])('neutralises a formula after a separator or quote in %j', (input, inner) => {
+    expect(csvField(input)).toBe(`"${inner}"`);
+  });
+
+  it('leaves numbers after a separator alone, so JSON keeps its negative values', () => {
+    expect(csvField('[1,-2,+3.5e-2]')).toBe('"[1,-2,+3.5e-2]"');
+    expect(csvField('{"n":-5}')).toBe('"{""n"":-5}"');
   });
 });
