@@ -112,7 +112,8 @@ describe('GET /api/audit/export?format=csv', () => {
     const records = parse(body, { bom: true, relax_column_count: true, skip_empty_lines: false }) as string[][];
     const namesAt = records.findIndex((r) => r[0] === 'id');
     const events = records.slice(namesAt + 1);
-    expect(events.map((r) => r[6])).toEqual(hostile.map((s) => (/^[=+\-@\t\r]/.test(s) ? `'${s}` : s)));
+    // A leading quote on each dangerous start; the tab of "\t=1" is a separator to a tab-separated reader, so its "=" gets one too.
+    expect(events.map((r) => r[6])).toEqual(['\'=HYPERLINK("http://x")', '\'@SUM(1)', '\'-2+3', '\'\t\'=1', hostile[4]]);
     expect(events.every((r) => /^\d+$/.test(r[0]))).toBe(true); // ids are bare numbers, not quoted text
     expect(events.map((r) => r[8])).toEqual(hostile.map(() => '{"n":-5}'));
     expect(text).toContain(`\r\n${events[0][0]},"`); // the id is written unquoted and unprefixed; text is always quoted
@@ -129,7 +130,8 @@ describe('GET /api/audit/export?format=csv', () => {
     const sheet = wb.getWorksheet('Audit trail')!;
     const rows = sheet.getSheetValues().filter((r): r is ExcelJS.CellValue[] => Array.isArray(r) && typeof r[1] === 'number');
     // XML stores a line break as LF (XML 1.0 §2.11), so CRLF inside a cell reads back as LF.
-    expect(rows.map((r) => r[7])).toEqual(events.map((r) => r[6].replace(/\r\n/g, '\n')));
+    // An .xlsx cell is never split, so only its start is neutralised.
+    expect(rows.map((r) => r[7])).toEqual(hostile.map((t) => (/^[=+\-@\t\r]/.test(t) ? `'${t}` : t).replace(/\r\n/g, '\n')));
     expect(rows.map((r) => r[1])).toEqual(events.map((r) => Number(r[0])));
   });
 });
