@@ -59,7 +59,8 @@ async function installJobQueueSchema(sql: postgres.Sql, runtimeRole: string, db:
     const relations = await tx<{ name: string; kind: string }[]>`
       SELECT c.relname AS name, c.relkind AS kind FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
       WHERE n.nspname = 'pgboss' AND c.relkind IN ('r', 'p', 'v', 'm', 'S')
-        AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = c.oid AND d.classid = 'pg_class'::regclass AND d.deptype IN ('a', 'i'))`;
+        -- A sequence owned by a column follows its table; tables and partitions are each handed over.
+        AND NOT (c.relkind = 'S' AND EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = c.oid AND d.classid = 'pg_class'::regclass AND d.deptype IN ('a', 'i')))`;
     for (const r of relations) {
       const kind = r.kind === 'S' ? 'SEQUENCE' : r.kind === 'v' ? 'VIEW' : r.kind === 'm' ? 'MATERIALIZED VIEW' : 'TABLE';
       await tx.unsafe(`ALTER ${kind} pgboss.${ident(r.name)} OWNER TO ${role}`);
