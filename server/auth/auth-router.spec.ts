@@ -1,4 +1,3 @@
-import { signInFailedText } from './auth-service';
 import bcrypt from 'bcryptjs';
 import { eq } from 'drizzle-orm';
 import { SignJWT, UnsecuredJWT } from 'jose';
@@ -7,6 +6,7 @@ import { auditEvents, people, roles } from '../../db/schema';
 import { demoEmail } from '../../db/seed/demo-lab';
 import { ApiClient, clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
 import { SESSION_COOKIE } from '../core/session';
+import { signInFailedText } from './auth-service';
 
 let h: ApiHarness;
 beforeAll(async () => {

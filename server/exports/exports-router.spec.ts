@@ -121,6 +121,9 @@ describe('GET /api/audit/export?format=csv', () => {
     const header = new Map(records.slice(0, namesAt).filter((r) => r.length === 2).map((r) => [r[0], r[1]]));
     const expected = await expectedRows(eq(auditEvents.action, action), Number(events[events.length - 1][0]));
     expect(header.get('Rows SHA-256')).toBe(sha256(canonicalJson(expected)));
+    // Every export takes a signed checkpoint first and compares the trail with it.
+    expect(header.get('Signed checkpoint')).toMatch(/^#\d+ taken \S+: \d+ events, newest event \d+ with hash [0-9a-f]{64}; Ed25519 signature \S+ \(key [0-9a-f]{16}\)$/);
+    expect(header.get('Chain verification (whole trail)')).toMatch(/^VALID: .*; it reaches the signed checkpoint of /);
     expect((await lastEvent('audit.export')).after).toMatchObject({ format: 'csv', rows: hostile.length, sha256: fileHash });
 
     // The same cells in .xlsx: neutralised text cells, numeric ids.
