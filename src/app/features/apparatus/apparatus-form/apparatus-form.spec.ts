@@ -79,7 +79,7 @@ describe('ApparatusForm', () => {
     type('Tag', 'VS-2');
     type('Name', 'Rigid vessel VS-2');
     type('Kind', 'vessel');
-    type('Rated pressure', '1500');
+    type('Rated pressure (absolute)', '1500');
     type('Piston bore', '32.5');
     type('Fixed volume', '1.2');
     type('Heat capacity', '410');
@@ -108,7 +108,7 @@ describe('ApparatusForm', () => {
 
   it('shows a stored record in kPa, mm and L, and puts it back in SI with the unit switched to bar', async () => {
     await open(pistonCell);
-    expect(input('Rated pressure').value).toBe('1000');
+    expect(input('Rated pressure (absolute)').value).toBe('1000');
     expect(input('Piston bore').value).toBe('50');
 
     page().querySelector<HTMLElement>('.unit .mat-mdc-select-trigger')?.click();
@@ -117,7 +117,7 @@ describe('ApparatusForm', () => {
       .find((o) => o.textContent?.trim() === 'bar')
       ?.click();
     await fixture.whenStable();
-    expect(input('Rated pressure').value).toBe('10');
+    expect(input('Rated pressure (absolute)').value).toBe('10');
 
     await submit();
     const request = httpTesting.expectOne('/api/apparatus/1');

@@ -141,6 +141,31 @@ describe('RunDetail', () => {
     expect(buttons()).toContain('Show reading 2');
   });
 
+  it('shows readings above the rated pressure as a safety alert of its own, deferring to local codes', async () => {
+    await openAs('investigator', 3);
+    expect(page().querySelector('.pressure-alert')).toBeNull();
+    const over = {
+      ...result,
+      flags: [
+        { code: 'ABOVE_RATED_PRESSURE', reading: 2, message: 'Reading 2 reaches 1.05e+6 Pa, above the apparatus\'s rated 1e+6 Pa.' },
+        { code: 'ABOVE_RATED_PRESSURE', reading: 3, message: 'Reading 3 reaches 1.02e+6 Pa, above the apparatus\'s rated 1e+6 Pa.' },
+      ],
+    } as BalanceResult;
+    httpTesting.expectOne('/api/runs/2').flush(run);
+    httpTesting.expectOne('/api/runs/2/balance').flush({ ...balance, result: over });
+    httpTesting.expectOne('/api/runs/2/history').flush({ items: [] });
+    await harness.fixture.whenStable();
+
+    const alert = page().querySelector('aside.pressure-alert[role="alert"]');
+    const text = alert?.textContent?.replace(/\s+/g, ' ') ?? '';
+    expect(text).toContain('Safety alert: above the rated pressure');
+    expect(text).toContain('2 readings of this run went above the rated pressure of Piston cell PC-3 (10 bar, absolute)');
+    expect(text).toContain('Reading 2 reaches');
+    expect(text).toContain("Local codes and the lab's licensed safety practice take precedence");
+    // it is not the ordinary caution banner
+    expect(alert?.classList.contains('safety')).toBe(false);
+  });
+
   it('offers approve, return and reject to an investigator who did not write the run', async () => {
     await openAs('investigator', 3);
     await answer(true);

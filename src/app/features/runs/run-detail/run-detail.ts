@@ -136,6 +136,23 @@ export class RunDetail {
     return pressure || heated ? { pressure, heated, rated, highest } : null;
   });
 
+  /** Readings above the vessel's rated pressure (engine flag ABOVE_RATED_PRESSURE): a safety alert, not an ordinary flag. */
+  protected readonly pressureAlert = computed(() => {
+    const over = (this.result()?.flags ?? []).filter((flag) => flag.code === 'ABOVE_RATED_PRESSURE');
+    if (over.length === 0) {
+      return null;
+    }
+    const run = this.run();
+    const peak = run?.series?.P?.length ? Math.max(...run.series.P) / 1e3 : null;
+    return {
+      count: over.length,
+      first: over[0].message,
+      rated: run?.setup.apparatus?.ratedPressure ?? null,
+      apparatus: run?.setup.apparatus?.name ?? 'the vessel',
+      peak,
+    };
+  });
+
   /** Why the review buttons are missing for an investigator, or null when they show. */
   protected readonly reviewBlock = computed((): string | null => {
     const run = this.run();
