@@ -72,6 +72,40 @@ describe('a technician', () => {
   });
 });
 
+describe('a technician, on the charts and the pressure alert', () => {
+  it('sees the claimed adiabat with CO₂\'s γ, the power axis in words, and a safety alert over the rated pressure', async () => {
+    const { page } = s;
+    await signInAs(page, 'technician');
+    const doc = loadFixture('adiabatic');
+    const bodies = runBodies(doc, await projectId('GX'));
+    const firstPa = doc.readings.pressure!.values[0] * 1e3;
+    // The rating set below the first reading, in kPa absolute, so every reading is over it.
+    const apparatus = { ...doc.apparatus, ratedPressure: { value: Math.floor((0.9 * firstPa) / 1e3), unit: 'kPa' } };
+    const created = await api('POST', '/api/runs', {
+      ...bodies.create,
+      title: `CO2 expansion over the rating, e2e ${Date.now()}`,
+      setup: { ...bodies.create.setup, gas: { model: 'species', species: 'CO2' }, apparatus },
+    });
+    await api('PUT', `/api/runs/${created.id}/readings`, { version: created.version, ...bodies.readings });
+    await page.goto(`/runs/${created.id}/edit`);
+    await page.getByRole('heading', { level: 2, name: 'Ready to submit' }).waitFor({ timeout: 20_000 });
+    await page.getByRole('button', { name: 'Submit for the balance check' }).click();
+    await page.waitForURL(new RegExp(`/runs/${created.id}$`), { timeout: 20_000 });
+    const alert = page.locator('aside.pressure-alert[role="alert"]');
+    await alert.waitFor({ timeout: 45_000 });
+    expect(await alert.textContent()).toContain('Safety alert: above the rated pressure');
+    const note = (await page.locator('qw-pv-diagram .note').textContent()) ?? '';
+    // γ of CO₂ near 290 K is about 1.29 (REFERENCES §2b: 1.28854 at 298.15 K), not the 1.4 of a diatomic gas.
+    expect(note).toMatch(/claimed adiabat \(P·V\^γ = const, γ = 1\.2[89]\d\)/);
+    await checkScreen(page, 'run-page-pressure-alert');
+
+    const heated = await draftFrom('calorimetric', `Bath run, power axis, e2e ${Date.now()}`);
+    await page.goto(`/runs/${heated.id}`);
+    await page.locator('qw-time-charts canvas').waitFor();
+    await checkScreen(page, 'run-page-power-axis');
+  });
+});
+
 describe('a student assistant', () => {
   it('imports a logger file into a new draft and sees what is still missing', async () => {
     const { page } = s;

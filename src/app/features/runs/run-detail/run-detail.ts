@@ -121,6 +121,8 @@ export class RunDetail {
     return series?.P && series.V ? { P: series.P, V: series.V } : null;
   });
   protected readonly gamma = computed(() => gammaFor(this.run()?.setup ?? {}, this.result()));
+  protected readonly claimedIndex = computed(() => this.result()?.process?.index ?? null);
+  protected readonly fittedIndex = computed(() => this.result()?.polytropicFit?.index ?? null);
 
   /** Cautions for work that can hurt someone: pressure and electrical heating. */
   protected readonly safety = computed(() => {
