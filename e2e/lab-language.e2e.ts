@@ -1,8 +1,10 @@
+import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import type { Role } from '../db/schema';
 import { loadFixture, runBodies } from '../server/testing/fixture-runs';
 import { seriousViolations } from './support/axe';
-import { openBrowser, screenshot, type Session } from './support/browser';
+import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from './support/browser';
 import { signInAs } from './support/sign-in';
 
 // Per role: the verdict appearing without a reload, the why-sentence, a readable audit row, the import
@@ -48,6 +50,14 @@ async function checkScreen(page: Page, name: string): Promise<void> {
     await screenshot(page, `${name}-${width}`);
   }
   await page.setViewportSize({ width: 1366, height: 900 });
+}
+
+/** A screenshot of one chart (the page scrolls inside its own container, so a full-page shot misses it). */
+async function chartShot(page: Page, selector: string, name: string): Promise<void> {
+  const chart = page.locator(selector);
+  await chart.scrollIntoViewIfNeeded();
+  mkdirSync(SCREENSHOT_DIR, { recursive: true });
+  await chart.screenshot({ path: join(SCREENSHOT_DIR, `${name}.png`) });
 }
 
 describe('a technician', () => {
@@ -101,11 +111,20 @@ describe('a technician, on the charts and the pressure alert', () => {
     expect(gamma).toBeGreaterThan(1.28);
     expect(gamma).toBeLessThan(1.32);
     await checkScreen(page, 'run-page-pressure-alert');
+    for (const width of [1366, 390]) {
+      await page.setViewportSize({ width, height: 844 });
+      await chartShot(page, 'qw-pv-diagram', `run-page-pv-co2-${width}`);
+    }
+    await page.setViewportSize({ width: 1366, height: 900 });
 
     const heated = await draftFrom('calorimetric', `Bath run, power axis, e2e ${Date.now()}`);
     await page.goto(`/runs/${heated.id}`);
     await page.locator('qw-time-charts canvas').waitFor();
     await checkScreen(page, 'run-page-power-axis');
+    for (const width of [1366, 390]) {
+      await page.setViewportSize({ width, height: 844 });
+      await chartShot(page, 'qw-time-charts', `run-page-power-chart-${width}`);
+    }
   });
 });
 
