@@ -3,6 +3,7 @@ const { createCjsPreset } = require('jest-preset-angular/presets');
 
 /** @type {import('jest').Config} */
 module.exports = {
+  // The client project sets a 30 s per-test timeout in src/test-setup.ts (jest.setTimeout).
   projects: [
     {
       ...createCjsPreset({ tsconfig: '<rootDir>/tsconfig.spec.json' }),

@@ -4,6 +4,8 @@ import { BASE_URL } from './support/server-process';
 import { signInAs } from './support/sign-in';
 
 let s: Session;
+/** How long the browser may wait on the server alone; a busy 2-core machine is slow, not wrong. */
+const SERVER_WAIT_MS = 90_000;
 beforeEach(async () => {
   s = await openBrowser();
 });
@@ -117,8 +119,19 @@ describe('a quality officer', () => {
     await dialog.getByLabel('Next due on').fill(nextYear);
     await dialog.getByLabel('Certificate').fill('HIAT-CAL-E2E');
     await dialog.getByLabel('Expanded uncertainty U').fill('0.02');
-    await dialog.getByRole('button', { name: 'Add calibration' }).click();
-    await dialog.waitFor({ state: 'detached' });
+    // The dialog closes on the server's answer: wait for that answer (bounded, generous, a loaded
+    // machine only delays it), check it was stored, then for the dialog's close animation.
+    const submit = dialog.getByRole('button', { name: 'Add calibration' });
+    await expect(submit.isEnabled()).resolves.toBe(true);
+    const [saved] = await Promise.all([
+      page.waitForResponse(
+        (r) => r.request().method() === 'POST' && /\/api\/instruments\/\d+\/calibrations$/.test(r.url()),
+        { timeout: SERVER_WAIT_MS },
+      ),
+      submit.click(),
+    ]);
+    expect(saved.status()).toBe(201);
+    await dialog.waitFor({ state: 'detached', timeout: SERVER_WAIT_MS });
     await page.getByText('HIAT-CAL-E2E').first().waitFor();
     await screenshot(page, 'instrument-detail-quality');
     await page.getByRole('navigation', { name: /main/i }).getByRole('link', { name: 'Audit trail' }).click();
@@ -126,7 +139,7 @@ describe('a quality officer', () => {
     await page.getByRole('button', { name: 'Verify the chain' }).click();
     await page.getByText('Chain intact').waitFor();
     await screenshot(page, 'audit-trail-verified');
-  });
+  }, 4 * SERVER_WAIT_MS);
 });
 
 describe('a student assistant', () => {
