@@ -1,4 +1,5 @@
 import 'reflect-metadata';
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
@@ -10,6 +11,7 @@ import type { DbHandle } from '../db/client';
 import { authRouter } from './auth/auth-router';
 import type { Config } from './config';
 import { csrfProtection } from './core/csrf';
+import { brotliStatic } from './core/brotli-static';
 import { apiNotFound, errorHandler } from './core/error-handler';
 import { inputHygiene } from './core/input-hygiene';
 import { sessionReader } from './core/session';
@@ -62,6 +64,10 @@ export function createApp(config: Config, handle: DbHandle, queue: JobQueue | nu
   app.use('/api', apiNotFound);
 
   if (existsSync(join(config.staticDir, 'index.html'))) {
+    // The app's own files only (the API answered above): compressed (brotli or gzip, as the browser
+    // accepts), so a first visit fetches a fraction of the built JS and CSS.
+    app.use(brotliStatic(config.staticDir, 3600));
+    app.use(compression());
     app.use(express.static(config.staticDir, { index: false, maxAge: '1h' }));
     // Client-side routes (e.g. /runs/12) all load the app shell; the router takes it from there.
     app.get('/{*splat}', (_req, res) => res.sendFile(join(config.staticDir, 'index.html')));
