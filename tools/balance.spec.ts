@@ -14,7 +14,12 @@ describe('tools/balance.ts', () => {
     expect(res.status).toBe(0);
     const out = JSON.parse(res.stdout);
     expect(out.verdict).toBe('breaks');
-    expect(out.settings).toEqual({ coverageFactor: 2, draws: 2000, seed: 5, indeterminateFraction: 0.2 });
+    // The command-line flags, and the lab settings' documented defaults (README, docs/run-document.md).
+    expect(out.settings).toEqual({
+      coverageFactor: 2, draws: 2000, seed: 5, indeterminateFraction: 0.2,
+      flagCoverage: 3, isothermalDriftFraction: 0.01, isochoricVolumeFraction: 0.005, adiabaticHeatFraction: 0.01,
+      indexTolerance: 0.05, heaterResistanceTolerance: 0.02, riseMethod: 'regnault-pfaundler',
+    });
     expect(out.hints.map((h: { code: string }) => h.code)).toContain('FORGOTTEN_HEAT_LEAK');
   }, 30000);
   it('exits 1 with each problem on stderr for an invalid document, and for unreadable files', () => {

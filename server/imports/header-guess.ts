@@ -13,7 +13,7 @@ export interface ColumnGuess {
 
 /** The units each import channel takes, as the engine names them. */
 export const UNITS_BY_CHANNEL: Readonly<Record<ImportChannel, readonly string[]>> = {
-  time: ['ms', 's', 'min', 'h', 'iso'],
+  time: ['s', 'ms', 'min', 'h', 'iso'],
   pressure: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'],
   volume: ['m3', 'L', 'mL', 'cm3'],
   displacement: ['m', 'mm'],

@@ -23,6 +23,8 @@ describe('HeadingFocus in the shell', () => {
     harness = await RouterTestingHarness.create();
     await harness.navigateByUrl('/home');
     httpTesting.expectOne('/api/home').flush({ role: 'quality', queues: [] });
+    // The quality officer's home also lists apparatus whose standardization is due.
+    httpTesting.expectOne('/api/apparatus-due').flush({ items: [] });
     await harness.fixture.whenStable();
   });
 

@@ -133,7 +133,7 @@ export const IMPORT_CHANNELS = Object.keys(CHANNEL_LABELS) as ImportChannel[];
 
 /** Units each channel takes, as the server names them. */
 export const UNITS_BY_CHANNEL: Readonly<Record<ImportChannel, readonly string[]>> = {
-  time: ['ms', 's', 'min', 'h', 'iso'],
+  time: ['s', 'ms', 'min', 'h', 'iso'],
   pressure: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'],
   volume: ['m3', 'L', 'mL', 'cm3'],
   displacement: ['m', 'mm'],
