@@ -73,8 +73,9 @@ describe('a run from draft to approved', () => {
       const both = all.some((m) => m.includes(`Run ${run.code} approved`)) && all.some((m) => m.includes(`Run ${run.code} submitted for review`));
       return both ? all : undefined;
     }, 20_000, 'the submission and approval mails');
-    const submitMail = mails.find((m) => m.includes(`Run ${run.code} submitted for review`))!;
-    expect(submitMail).toContain(`X-Qwell-Envelope-To: ${demoEmail('investigator')}`);
+    // Every investigator of the project hears of it (other spec files add throwaway ones to GX).
+    const submitMails = mails.filter((m) => m.includes(`Run ${run.code} submitted for review`));
+    expect(submitMails.filter((m) => m.includes(`X-Qwell-Envelope-To: ${demoEmail('investigator')}`))).toHaveLength(1);
     const approvalMail = mails.find((m) => m.includes(`Run ${run.code} approved`))!;
     expect(approvalMail).toContain(`X-Qwell-Envelope-To: ${demoEmail('technician')}`);
     // Plain words and a link to the run at the lab's public address.
@@ -123,8 +124,9 @@ describe('review rules', () => {
       version: v, password: 'qwell-demo-lab', meaning: approvalMeanings[0], reason: 'Heat leak is corrected in the report by the bath model; the raw balance is kept as recorded.',
     });
     expect(justified.status).toBe(200);
-    const [breakMail] = await h.handle.db.select().from(mailOutbox).where(eq(mailOutbox.subject, `Run ${run.code}: the energy balance breaks`));
-    expect(breakMail.recipient).toBe(demoEmail('investigator'));
+    const breakMails = await h.handle.db.select().from(mailOutbox).where(eq(mailOutbox.subject, `Run ${run.code}: the energy balance breaks`));
+    expect(breakMails.map((m) => m.recipient)).toContain(demoEmail('investigator'));
+    const breakMail = breakMails.find((m) => m.recipient === demoEmail('investigator'))!;
     expect(breakMail.body).toContain(`Why: ${stored.why}`);
     expect(breakMail.body).toMatch(new RegExp(`Open the run to see the flags and hints: http://\\S+/runs/${run.id}$`));
   });
