@@ -11,7 +11,7 @@ import { BASE_URL, root } from './support/server-process';
 const expectedNav: Record<Role, string[]> = {
   technician: ['Home', 'Runs', 'New run', 'Import', 'Instruments', 'Apparatus', 'Gases'],
   assistant: ['Home', 'Runs', 'New run', 'Import', 'Instruments', 'Apparatus', 'Gases'],
-  investigator: ['Home', 'Runs', 'Instruments', 'Apparatus', 'Gases', 'Audit trail'],
+  investigator: ['Home', 'Runs', 'New run', 'Import', 'Instruments', 'Apparatus', 'Gases', 'Audit trail'],
   quality: ['Home', 'Runs', 'Instruments', 'Apparatus', 'Gases', 'Audit trail'],
   admin: ['Home', 'Instruments', 'Apparatus', 'Gases', 'People', 'Projects'],
 };
