@@ -5,10 +5,8 @@ export const approvalMeanings = ['I have reviewed this run and approve its resul
 export const returnMeanings = ['I have reviewed this run and return it for correction'] as const;
 export const rejectionMeanings = ['I have reviewed this run and reject its results'] as const;
 
-export class SignatureDto {
-  @IsInt({ message: 'version must be the version of the run you reviewed (a whole number)' })
-  version!: number;
-
+/** The fields of every electronic signature: the signer's password again, the meaning, an optional reason. */
+export class SignatureFields {
   @IsString({ message: 'password must be text' }) @Length(1, 1024, { message: 'Enter your password to sign.' })
   password!: string;
 
@@ -17,6 +15,11 @@ export class SignatureDto {
 
   @IsOptional() @IsString({ message: 'reason must be text' }) @MaxLength(4000, { message: 'reason is at most 4000 characters' })
   reason?: string;
+}
+
+export class SignatureDto extends SignatureFields {
+  @IsInt({ message: 'version must be the version of the run you reviewed (a whole number)' })
+  version!: number;
 }
 
 export const reviewActions = ['approve', 'return', 'reject'] as const;

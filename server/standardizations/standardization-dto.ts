@@ -1,21 +1,14 @@
-import { ArrayMaxSize, ArrayMinSize, IsArray, IsInt, IsOptional, IsString, Length, Matches, MaxLength, Min } from 'class-validator';
+import { ArrayMaxSize, ArrayMinSize, IsArray, IsInt, IsOptional, IsString, Length, Matches, Min } from 'class-validator';
+
+import { SignatureFields } from '../runs/review-dto';
 
 /** What an approval of a standardization means, in the signer's choice of words from a fixed list. */
 export const standardizationMeanings = ['I have reviewed these standardization runs and approve the energy equivalent'] as const;
 
-export class ApproveStandardizationDto {
+export class ApproveStandardizationDto extends SignatureFields {
   @IsArray({ message: 'runIds must be a list of run ids' }) @ArrayMinSize(1, { message: 'runIds must name at least one run' }) @ArrayMaxSize(200, { message: 'runIds names at most 200 runs' })
   @IsInt({ each: true, message: 'runIds must hold run ids (whole numbers)' }) @Min(1, { each: true, message: 'runIds must hold run ids (whole numbers)' })
   runIds!: number[];
-
-  @IsString({ message: 'password must be text' }) @Length(1, 1024, { message: 'Enter your password to sign.' })
-  password!: string;
-
-  @IsString({ message: 'meaning must be text' }) @Length(1, 200, { message: 'Choose what your signature means.' })
-  meaning!: string;
-
-  @IsOptional() @IsString({ message: 'reason must be text' }) @MaxLength(4000, { message: 'reason is at most 4000 characters' })
-  reason?: string;
 }
 
 export class ApparatusChangeDto {
