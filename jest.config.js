@@ -14,14 +14,14 @@ module.exports = {
     {
       displayName: 'server',
       testEnvironment: 'node',
-      roots: ['<rootDir>/server', '<rootDir>/db', '<rootDir>/tools'],
+      roots: ['<rootDir>/server', '<rootDir>/db', '<rootDir>/tools', '<rootDir>/testing'],
       testMatch: ['**/*.spec.ts'],
       transform: {
         '^.+\\.[tj]s$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.server.json' }],
       },
       transformIgnorePatterns: ['/node_modules/(?!(jose)/)'],
       setupFiles: ['reflect-metadata'],
-      setupFilesAfterEnv: ['<rootDir>/server/testing/jest-setup.ts'],
+      setupFilesAfterEnv: ['<rootDir>/testing/jest-setup.ts'],
     },
   ],
 };

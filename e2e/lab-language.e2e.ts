@@ -2,7 +2,7 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import type { Role } from '../db/schema';
-import { loadFixture, runBodies } from '../server/testing/fixture-runs';
+import { loadFixture, runBodies } from '../testing/fixture-runs';
 import { seriousViolations } from './support/axe';
 import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from './support/browser';
 import { signInAs } from './support/sign-in';

@@ -10,8 +10,8 @@ import bcrypt from 'bcryptjs';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import postgres from 'postgres';
-import { ApiClient } from '../server/testing/api-harness';
-import { startQwellProcess, type QwellProcess } from '../server/testing/qwell-process';
+import { ApiClient } from '../testing/api-harness';
+import { startQwellProcess, type QwellProcess } from '../testing/qwell-process';
 
 const root = join(__dirname, '..');
 const N = Number(process.argv[2] ?? 1_000_000);

@@ -4,8 +4,8 @@
 // wrong nested types, prototype keys), a tenth as many again, sent in parallel (QWELL_FUZZ_PARALLEL, default 8). Run with `npm run fuzz [-- CASES]`; prints failures and a summary; exit 1 on any.
 import 'reflect-metadata';
 import fc from 'fast-check';
-import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, hostileFamilies, payloadsFor, sendOnce, type FuzzFailure } from '../server/security/fuzz-writes';
-import { startHarness } from '../server/testing/api-harness';
+import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, hostileFamilies, payloadsFor, sendOnce, type FuzzFailure } from '../testing/fuzz-writes';
+import { startHarness } from '../testing/api-harness';
 
 async function main(): Promise<void> {
   const total = Number(process.argv[2] ?? 10_000);

@@ -11,7 +11,7 @@ import { createDb } from '../db/client';
 import { runs } from '../db/schema';
 import { DEFAULT_DEMO_PASSWORD, demoEmail } from '../db/seed/demo-lab';
 import { seedDemoLab } from '../db/seed/seed';
-import { startQwellProcess } from '../server/testing/qwell-process';
+import { startQwellProcess } from '../testing/qwell-process';
 
 const API_PORT = 3300;
 const BARE_PORT = 3301;

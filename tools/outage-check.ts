@@ -4,8 +4,8 @@
 // It stops the cluster: never run it while tests or other work use the database.
 import { execFileSync } from 'node:child_process';
 import { join } from 'node:path';
-import { ApiClient } from '../server/testing/api-harness';
-import { startQwellProcess } from '../server/testing/qwell-process';
+import { ApiClient } from '../testing/api-harness';
+import { startQwellProcess } from '../testing/qwell-process';
 
 const root = join(__dirname, '..');
 const pg = (cmd: string) => execFileSync('bash', [join(root, 'tools', 'pg'), cmd], { stdio: 'ignore' });

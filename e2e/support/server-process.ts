@@ -1,6 +1,6 @@
 import type { ChildProcess } from 'node:child_process';
 import { join } from 'node:path';
-import { spawnServer } from '../../server/testing/spawn-server';
+import { spawnServer } from '../../testing/spawn-server';
 
 export const E2E_PORT = Number(process.env['QWELL_E2E_PORT'] ?? 3100);
 export const BASE_URL = `http://127.0.0.1:${E2E_PORT}`;

@@ -3,7 +3,7 @@ import { existsSync, readdirSync } from 'node:fs';
 import postgres from 'postgres';
 import { auditCheckpoints, auditEvents } from '../../db/schema';
 import { ownerDatabaseUrl } from '../config';
-import { clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
+import { clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
 import { takeCheckpoint, verifyAuditChain } from './audit-checkpoint';
 import { recordAuditAlone } from './audit-service';
 

@@ -1,9 +1,9 @@
 import { eq, sql } from 'drizzle-orm';
 import { auditEvents, projects } from '../../db/schema';
 import { approvalMeanings } from '../runs/review-dto';
-import { ApiClient, clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
-import { loadFixture, runBodies } from '../testing/fixture-runs';
-import { makeThrowawayPerson } from '../testing/throwaway-people';
+import { ApiClient, clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
+import { loadFixture, runBodies } from '../../testing/fixture-runs';
+import { makeThrowawayPerson } from '../../testing/throwaway-people';
 
 import { walkAuditChain } from './audit-service';
 

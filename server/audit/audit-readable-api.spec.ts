@@ -1,8 +1,8 @@
 import { parse } from 'csv-parse/sync';
 import { eq } from 'drizzle-orm';
 import { projects } from '../../db/schema';
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
-import { loadFixture, runBodies } from '../testing/fixture-runs';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
+import { loadFixture, runBodies } from '../../testing/fixture-runs';
 
 let h: ApiHarness;
 let tech: ApiClient;

@@ -1,9 +1,9 @@
 import { parse } from 'csv-parse/sync';
 import { eq } from 'drizzle-orm';
 import { projects } from '../../db/schema';
-import { ApiClient, clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
-import { loadFixture, runBodies } from '../testing/fixture-runs';
-import { makeThrowawayPerson } from '../testing/throwaway-people';
+import { ApiClient, clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
+import { loadFixture, runBodies } from '../../testing/fixture-runs';
+import { makeThrowawayPerson } from '../../testing/throwaway-people';
 
 // Audit reads are scoped exactly like run reads. Before, an investigator outside a run's project got
 // 403 on the run but 200 on GET /api/audit?run=… and in the export, with the run's title and setup.

@@ -2,7 +2,7 @@ import { eq, sql } from 'drizzle-orm';
 import postgres from 'postgres';
 import { auditEvents } from '../../db/schema';
 import { ownerDatabaseUrl } from '../config';
-import { clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
+import { clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
 import { verifyAuditChain as verifyWith } from './audit-checkpoint';
 import { recordAuditAlone as recordAudit } from './audit-service';
 

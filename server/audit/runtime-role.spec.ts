@@ -1,5 +1,5 @@
 import postgres from 'postgres';
-import { startHarness, type ApiHarness } from '../testing/api-harness';
+import { startHarness, type ApiHarness } from '../../testing/api-harness';
 import { recordAuditAlone } from './audit-service';
 
 // The app's own database role (DATABASE_URL) may only append to the trail and read it: every statement

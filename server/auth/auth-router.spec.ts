@@ -4,7 +4,7 @@ import { SignJWT, UnsecuredJWT } from 'jose';
 import request from 'supertest';
 import { auditEvents, people, roles } from '../../db/schema';
 import { demoEmail } from '../../db/seed/demo-lab';
-import { ApiClient, clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
+import { ApiClient, clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
 import { SESSION_COOKIE } from '../core/session';
 import { signInFailedText } from './auth-service';
 

@@ -3,9 +3,9 @@ import { and, eq, inArray } from 'drizzle-orm';
 import { auditEvents, people, projects } from '../../db/schema';
 import { demoEmail } from '../../db/seed/demo-lab';
 import { approvalMeanings } from '../runs/review-dto';
-import { ApiClient, clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
-import { loadFixture, runBodies } from '../testing/fixture-runs';
-import { makeThrowawayPerson } from '../testing/throwaway-people';
+import { ApiClient, clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
+import { loadFixture, runBodies } from '../../testing/fixture-runs';
+import { makeThrowawayPerson } from '../../testing/throwaway-people';
 import { signInFailedText } from './auth-service';
 import { BCRYPT_COST, dummyPasswordHash } from './password-attempts';
 

@@ -1,7 +1,7 @@
 import { count } from 'drizzle-orm';
 import { balanceResults } from '../../db/schema';
-import { clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
-import { loadFixture } from '../testing/fixture-runs';
+import { clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
+import { loadFixture } from '../../testing/fixture-runs';
 
 let h: ApiHarness;
 beforeAll(async () => {

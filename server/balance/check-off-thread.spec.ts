@@ -1,5 +1,5 @@
 import { checkRunDocument } from '../engine';
-import { loadFixture } from '../testing/fixture-runs';
+import { loadFixture } from '../../testing/fixture-runs';
 import { checkDocument, checkOffThread, OFF_THREAD_FROM_READINGS } from './check-off-thread';
 
 /** The isothermal fixture resampled onto n time points by linear interpolation (still a valid run document). */

@@ -1,5 +1,5 @@
 import { checkRunDocument } from '../engine';
-import { loadFixture } from '../testing/fixture-runs';
+import { loadFixture } from '../../testing/fixture-runs';
 import { dominantSource, whySentence, type WhyInput } from './why-sentence';
 
 // The sentence only words what the stored result already holds; each case below takes the result of a

@@ -3,7 +3,7 @@ import express from 'express';
 import request from 'supertest';
 import { dataVersions, people, projectMembers, runs } from '../../db/schema';
 import { demoEmail } from '../../db/seed/demo-lab';
-import { clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
+import { clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
 import { ReadCache } from './read-cache';
 
 describe('ReadCache', () => {

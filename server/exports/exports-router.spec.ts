@@ -5,7 +5,7 @@ import { createHash } from 'node:crypto';
 import { auditEvents, runs } from '../../db/schema';
 import { recordAuditAlone } from '../audit/audit-service';
 import { canonicalJson } from '../core/canonical-json';
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { pdfPageCount, pdfTextRuns } from './pdf-text';
 
 let h: ApiHarness;

@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { startHarness, type ApiHarness } from '../testing/api-harness';
+import { startHarness, type ApiHarness } from '../../testing/api-harness';
 
 let h: ApiHarness;
 beforeAll(async () => {

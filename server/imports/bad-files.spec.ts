@@ -1,6 +1,6 @@
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
-import { csv, importCounts, uploadFile } from './import-spec-support';
-import { encryptedWorkbookStub, lyingZip, xlsxBuffer, zipBomb } from './import-test-files';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
+import { csv, importCounts, uploadFile } from '../../testing/import-spec-support';
+import { encryptedWorkbookStub, lyingZip, xlsxBuffer, zipBomb } from '../../testing/import-test-files';
 
 // Small limits so that "too large" and "too many rows" need only small files.
 const saved = { rows: process.env['QWELL_IMPORT_MAX_ROWS'], mb: process.env['QWELL_UPLOAD_MAX_MB'] };
@@ -89,7 +89,7 @@ describe('POST /api/imports refuses bad files and stores nothing', () => {
   });
 
   it('refuses a ZIP that is not a workbook (415)', async () => {
-    const { zipBuffer } = await import('./import-test-files');
+    const { zipBuffer } = await import('../../testing/import-test-files');
     await refused('archive.xlsx', zipBuffer([{ name: 'readme.txt', data: Buffer.from('hello') }]), 415, /ZIP archive but not a workbook \(\.xlsx\)/);
   });
 

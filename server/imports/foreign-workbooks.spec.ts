@@ -3,9 +3,9 @@ import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
 import { projects } from '../../db/schema';
 import { toSi, type UnitKind } from '../engine/units';
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
-import { importCounts, uploadFile } from './import-spec-support';
-import { zipBuffer } from './import-test-files';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
+import { importCounts, uploadFile } from '../../testing/import-spec-support';
+import { zipBuffer } from '../../testing/import-test-files';
 
 // Workbooks written by other writers than exceljs (fixtures/workbooks/README.md says which made
 // each), and archives whose two descriptions of themselves disagree.

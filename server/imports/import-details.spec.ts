@@ -1,7 +1,7 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import { auditEvents, projects, uploads } from '../../db/schema';
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
-import { csv, uploadFile } from './import-spec-support';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
+import { csv, uploadFile } from '../../testing/import-spec-support';
 
 let h: ApiHarness;
 let tech: ApiClient;

@@ -3,9 +3,9 @@ import { join } from 'node:path';
 import { and, eq } from 'drizzle-orm';
 import { auditEvents, imports, projects, uploads } from '../../db/schema';
 import { toSi, type UnitKind } from '../engine/units';
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
-import { csv, importCounts, uploadFile } from './import-spec-support';
-import { xlsxBuffer } from './import-test-files';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
+import { csv, importCounts, uploadFile } from '../../testing/import-spec-support';
+import { xlsxBuffer } from '../../testing/import-test-files';
 
 let h: ApiHarness;
 let tech: ApiClient;

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { mailOutbox } from '../../db/schema';
 import { demoEmail } from '../../db/seed/demo-lab';
-import { clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
+import { clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
 import { sendCalibrationReminder } from './calibration-reminder';
 import { addDays, calibrationStatus, todayIso } from './calibration-status';
 

@@ -6,7 +6,7 @@ import { createDb } from '../../db/client';
 import { auditEvents, readings, runs } from '../../db/schema';
 import { verifyAuditChain } from '../audit/audit-checkpoint';
 import { recordAuditAlone } from '../audit/audit-service';
-import { startHarness, type ApiHarness } from '../testing/api-harness';
+import { startHarness, type ApiHarness } from '../../testing/api-harness';
 
 const root = join(__dirname, '..', '..');
 const tool = (name: string, ...args: string[]) => execFileSync('bash', [join(root, 'tools', name), ...args], { cwd: root, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] }).trim();

@@ -4,8 +4,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import bcrypt from 'bcryptjs';
 import postgres from 'postgres';
-import { ApiClient } from '../testing/api-harness';
-import { startQwellProcess, type QwellProcess } from '../testing/qwell-process';
+import { ApiClient } from '../../testing/api-harness';
+import { startQwellProcess, type QwellProcess } from '../../testing/qwell-process';
 
 // The database outage drill on a cluster of its own (another folder and port), so that stopping
 // PostgreSQL here never disturbs the shared test cluster. `npm run outage-check` runs the same

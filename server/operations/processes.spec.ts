@@ -1,10 +1,10 @@
 import { and, count, eq, sql } from 'drizzle-orm';
 import { auditEvents, balanceResults, imports, projects } from '../../db/schema';
-import { csv, importCounts, uploadFile } from '../imports/import-spec-support';
+import { csv, importCounts, uploadFile } from '../../testing/import-spec-support';
 import { verifyAuditChain } from '../audit/audit-checkpoint';
-import { ApiClient, eventually, startHarness, type ApiHarness } from '../testing/api-harness';
-import { loadFixture, runBodies } from '../testing/fixture-runs';
-import { startQwellProcess, type QwellProcess } from '../testing/qwell-process';
+import { ApiClient, eventually, startHarness, type ApiHarness } from '../../testing/api-harness';
+import { loadFixture, runBodies } from '../../testing/fixture-runs';
+import { startQwellProcess, type QwellProcess } from '../../testing/qwell-process';
 import { demoEmail } from '../../db/seed/demo-lab';
 
 let h: ApiHarness;

@@ -1,7 +1,7 @@
 import { eq, TransactionRollbackError } from 'drizzle-orm';
 import { readings, runs } from '../../db/schema';
 import { sha256Canonical } from '../engine/canonical';
-import { startHarness, type ApiHarness } from '../testing/api-harness';
+import { startHarness, type ApiHarness } from '../../testing/api-harness';
 import type { ReadingRow } from './run-document-mapper';
 import { BULK_FROM_ROWS, insertReadings, sha256ReadingRows } from './readings-bulk';
 import { loadReadings } from './run-loader';

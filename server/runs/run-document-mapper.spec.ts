@@ -1,5 +1,5 @@
 import { checkRunDocument } from '../engine';
-import { loadFixture } from '../testing/fixture-runs';
+import { loadFixture } from '../../testing/fixture-runs';
 import { documentToStorage, storageToDocument, type DocumentContext } from './run-document-mapper';
 
 // Issue 12: the barometer is an instrument of the register; a stored run names it and the document carries it.

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { projects } from '../../db/schema';
-import { clientAs, startHarness, type ApiHarness } from '../testing/api-harness';
+import { clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
 
 let h: ApiHarness;
 beforeAll(async () => {

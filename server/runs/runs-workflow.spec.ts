@@ -3,8 +3,8 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { auditEvents, balanceResults, mailOutbox, projects, readings, runs, signatures } from '../../db/schema';
 import { demoEmail } from '../../db/seed/demo-lab';
 import { checkRunDocument } from '../engine';
-import { clientAs, eventually, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
-import { loadFixture, runBodies } from '../testing/fixture-runs';
+import { clientAs, eventually, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
+import { loadFixture, runBodies } from '../../testing/fixture-runs';
 import { approvalMeanings, returnMeanings } from './review-dto';
 
 let h: ApiHarness;

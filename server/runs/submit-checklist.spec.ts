@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { projects } from '../../db/schema';
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
-import { loadFixture, runBodies } from '../testing/fixture-runs';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
+import { loadFixture, runBodies } from '../../testing/fixture-runs';
 import { plainProblem } from './submit-checklist';
 
 let h: ApiHarness;

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { instruments, runs } from '../../db/schema';
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { listRoutes } from './route-list';
 
 type Who = 'anonymous' | 'technician' | 'assistant' | 'investigator' | 'quality' | 'admin';

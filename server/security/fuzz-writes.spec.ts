@@ -1,8 +1,8 @@
 import fc from 'fast-check';
-import { startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
+import { startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { eq } from 'drizzle-orm';
 import { runs } from '../../db/schema';
-import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, hostileFamilies, payloadsFor, rowCounts, sendOnce, type FuzzIds } from './fuzz-writes';
+import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, hostileFamilies, payloadsFor, rowCounts, sendOnce, type FuzzIds } from '../../testing/fuzz-writes';
 
 let h: ApiHarness;
 let clients: Record<string, ApiClient>;

@@ -1,9 +1,9 @@
 import { eq } from 'drizzle-orm';
 import { people, projects, runs } from '../../db/schema';
 import { demoEmail } from '../../db/seed/demo-lab';
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
-import { loadFixture, runBodies } from '../testing/fixture-runs';
-import { rowCounts } from './fuzz-writes';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
+import { loadFixture, runBodies } from '../../testing/fixture-runs';
+import { rowCounts } from '../../testing/fuzz-writes';
 
 // Each case answered 5xx, or was stored and broke later reads, before the input hygiene
 // (server/core/input-hygiene.ts), the setup check (server/runs/setup-validation.ts) and the SI range checks.

@@ -1,6 +1,6 @@
 import { and, desc, eq } from 'drizzle-orm';
 import { apparatus, auditEvents } from '../../db/schema';
-import { clientAs, DEMO_PASSWORD, startHarness, type ApiHarness } from '../testing/api-harness';
+import { clientAs, DEMO_PASSWORD, startHarness, type ApiHarness } from '../../testing/api-harness';
 import { standardizationMeanings } from './standardization-dto';
 import { runStandardization } from './standardization-pin';
 

@@ -2,12 +2,12 @@ import bcrypt from 'bcryptjs';
 import { eq, sql } from 'drizzle-orm';
 import type { Express } from 'express';
 import fc from 'fast-check';
-import type { Database } from '../../db/client';
-import { apparatus, instruments, people, projectMembers, projects, runs } from '../../db/schema';
-import { demoEmail } from '../../db/seed/demo-lab';
-import { approvalMeanings } from '../runs/review-dto';
-import { ApiClient, DEMO_PASSWORD } from '../testing/api-harness';
-import { loadFixture, runBodies } from '../testing/fixture-runs';
+import type { Database } from '../db/client';
+import { apparatus, instruments, people, projectMembers, projects, runs } from '../db/schema';
+import { demoEmail } from '../db/seed/demo-lab';
+import { approvalMeanings } from '../server/runs/review-dto';
+import { ApiClient, DEMO_PASSWORD } from './api-harness';
+import { loadFixture, runBodies } from './fixture-runs';
 
 /** Who sends a route's payloads: throwaway people made here for the run routes, the demo quality officer and administrator for the registers. */
 type Actor = 'fuzzTechnician' | 'fuzzInvestigator' | 'quality' | 'admin';

@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs';
-import type { Database } from '../../db/client';
-import { people, projectMembers, type Role } from '../../db/schema';
+import type { Database } from '../db/client';
+import { people, projectMembers, type Role } from '../db/schema';
 
 export const THROWAWAY_PASSWORD = 'throwaway-password-1';
 

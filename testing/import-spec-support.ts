@@ -1,7 +1,7 @@
 import { count } from 'drizzle-orm';
-import type { Database } from '../../db/client';
-import { imports, readings, runs, uploads } from '../../db/schema';
-import type { ApiClient } from '../testing/api-harness';
+import type { Database } from '../db/client';
+import { imports, readings, runs, uploads } from '../db/schema';
+import type { ApiClient } from './api-harness';
 
 /** Row counts of everything an import may write; a refused file must leave all four unchanged. */
 export async function importCounts(db: Database) {

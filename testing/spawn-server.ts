@@ -1,7 +1,7 @@
 import { spawn, type ChildProcess, type StdioOptions } from 'node:child_process';
 import { join } from 'node:path';
 
-const root = join(__dirname, '..', '..');
+const root = join(__dirname, '..');
 
 /**
  * Starts server/main.ts in a Node process of its own, with tsx loaded inside it. The `tsx` command

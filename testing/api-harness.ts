@@ -5,17 +5,17 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { SMTPServer } from 'smtp-server';
 import request from 'supertest';
-import { createDb, type DbHandle } from '../../db/client';
-import { DEFAULT_DEMO_PASSWORD, demoEmail } from '../../db/seed/demo-lab';
-import { seedDemoLab } from '../../db/seed/seed';
-import type { Role } from '../../db/schema';
-import { createApp } from '../app';
-import { loadConfig, type Config } from '../config';
-import { XSRF_COOKIE } from '../core/csrf';
-import { JobQueue } from '../jobs/job-queue';
-import { startMailCatcher } from '../mail/mail-catcher';
-import { MailDispatcher } from '../mail/mail-dispatcher';
-import { startWorker } from '../worker';
+import { createDb, type DbHandle } from '../db/client';
+import { DEFAULT_DEMO_PASSWORD, demoEmail } from '../db/seed/demo-lab';
+import { seedDemoLab } from '../db/seed/seed';
+import type { Role } from '../db/schema';
+import { createApp } from '../server/app';
+import { loadConfig, type Config } from '../server/config';
+import { XSRF_COOKIE } from '../server/core/csrf';
+import { JobQueue } from '../server/jobs/job-queue';
+import { startMailCatcher } from '../server/mail/mail-catcher';
+import { MailDispatcher } from '../server/mail/mail-dispatcher';
+import { startWorker } from '../server/worker';
 
 export const DEMO_PASSWORD = DEFAULT_DEMO_PASSWORD;
 

@@ -1,9 +1,9 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { RunDocument } from '../engine';
+import type { RunDocument } from '../server/engine';
 
 export function loadFixture(name: string): RunDocument {
-  return JSON.parse(readFileSync(join(__dirname, '..', '..', 'fixtures', 'runs', `${name}.json`), 'utf8')) as RunDocument;
+  return JSON.parse(readFileSync(join(__dirname, '..', 'fixtures', 'runs', `${name}.json`), 'utf8')) as RunDocument;
 }
 
 /** The bodies a client sends to create a run from a run document: POST /api/runs, then PUT readings. */
