@@ -1,15 +1,13 @@
-import { HttpClient, HttpEvent, HttpParams } from '@angular/common/http';
+import { HttpClient, HttpEvent } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { Observable, forkJoin, map } from 'rxjs';
+import { Observable, map } from 'rxjs';
 
 import {
   ColumnMap,
   CommitResult,
   CommitTarget,
-  DraftOption,
   ImportMapping,
   ImportPreview,
-  ProjectOption,
   RowCheck,
   UploadOptions,
 } from './imports.models';
@@ -43,21 +41,5 @@ export class ImportsApi {
 
   saveColumnMap(name: string, headers: string[], mapping: ImportMapping): Observable<ColumnMap> {
     return this.http.post<ColumnMap>('/api/imports/column-maps', { name, headers, mapping });
-  }
-
-  projects(): Observable<ProjectOption[]> {
-    return this.http.get<{ items: ProjectOption[] }>('/api/projects').pipe(map((r) => r.items));
-  }
-
-  /** One's own runs whose readings may be replaced: drafts and returned runs. */
-  myEditableRuns(): Observable<DraftOption[]> {
-    const page = (state: string) =>
-      this.http.get<{ items: DraftOption[] }>('/api/runs', { params: new HttpParams({ fromObject: { state, mine: 'true', pageSize: 100 } }) });
-    return forkJoin([page('draft'), page('returned')]).pipe(map(([a, b]) => [...a.items, ...b.items]));
-  }
-
-  /** The version of a run, which replacing its readings must quote. */
-  runVersion(runId: number): Observable<number> {
-    return this.http.get<{ version: number }>(`/api/runs/${runId}`).pipe(map((r) => r.version));
   }
 }

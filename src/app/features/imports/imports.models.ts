@@ -104,20 +104,6 @@ export interface CommitResult {
   readings: number;
 }
 
-export interface ProjectOption {
-  id: number;
-  code: string;
-  name: string;
-}
-
-export interface DraftOption {
-  id: number;
-  code: string;
-  title: string;
-  state: string;
-  version?: number;
-}
-
 export const CHANNEL_LABELS: Readonly<Record<ImportChannel, string>> = {
   time: 'Time',
   pressure: 'Pressure',

@@ -69,41 +69,6 @@ export interface DraftSetup {
   [key: string]: unknown;
 }
 
-/** One of the person's projects. */
-export interface Project {
-  id: number;
-  code: string;
-  name: string;
-}
-
-/** One gas of `GET /api/gases`. */
-export interface Gas {
-  id: number;
-  /** Species code the engine knows: N2, O2, Ar, CO2, He, air. */
-  code: string;
-  name: string;
-  /** kg/mol. */
-  molarMass: number;
-}
-
-/** One piece of apparatus of `GET /api/apparatus`; values in SI, null when not known. */
-export interface ApparatusItem {
-  id: number;
-  tag: string;
-  name: string;
-  kind: string;
-  /** Pa. */
-  ratedPressure: number | null;
-  /** m. */
-  bore: number | null;
-  /** m³. */
-  fixedVolume: number | null;
-}
-
-export interface ItemList<T> {
-  items: T[];
-}
-
 /** `GET /api/runs/:id` as run entry reads it; readings are SI columns, one value per time point. */
 export interface RunDraft {
   id: number;

@@ -3,12 +3,8 @@ import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 
 import {
-  ApparatusItem,
   BalanceResponse,
   CreateRunBody,
-  Gas,
-  ItemList,
-  Project,
   ReadingsBody,
   ReviewAction,
   RunChecklistResponse,
@@ -26,36 +22,14 @@ import {
 export class RunsApi {
   private readonly http = inject(HttpClient);
 
-  /** One page of the runs this person may see. */
-  list(query: RunQuery): Observable<RunPage> {
+  /** One page of the runs this person may see; parts of the query not given take the server's defaults. */
+  list(query: Partial<RunQuery>): Observable<RunPage> {
     // Filters that are not set are left out: the server reads a missing filter as "any".
-    const optional: Record<string, string | number | null> = {
-      state: query.state,
-      verdict: query.verdict,
-      project: query.project,
-      author: query.author,
-      mine: query.mine ? 'true' : null,
-      from: query.from,
-      to: query.to,
-    };
-    const set = Object.fromEntries(Object.entries(optional).filter(([, v]) => v !== null)) as Record<string, string | number>;
-    const params = new HttpParams({
-      fromObject: { page: query.page, pageSize: query.pageSize, ...set, sort: query.sort, dir: query.dir },
-    });
-    return this.http.get<RunPage>('/api/runs', { params });
-  }
-
-  /** The person's own projects (where they may write runs). */
-  projects(): Observable<ItemList<Project>> {
-    return this.http.get<ItemList<Project>>('/api/projects');
-  }
-
-  gases(): Observable<ItemList<Gas>> {
-    return this.http.get<ItemList<Gas>>('/api/gases');
-  }
-
-  apparatus(): Observable<ItemList<ApparatusItem>> {
-    return this.http.get<ItemList<ApparatusItem>>('/api/apparatus');
+    const set: Record<string, string | number> = {};
+    for (const [key, value] of Object.entries(query) as [string, string | number | boolean | null | undefined][]) {
+      if (value !== null && value !== undefined && value !== false) set[key] = value === true ? 'true' : value;
+    }
+    return this.http.get<RunPage>('/api/runs', { params: new HttpParams({ fromObject: set }) });
   }
 
   /** One run with its setup and its readings in SI, for editing. */

@@ -5,6 +5,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
+import { MatRadioGroupHarness } from '@angular/material/radio/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { Router, provideRouter } from '@angular/router';
 
@@ -71,6 +72,43 @@ describe('ImportPage', () => {
     await fixture.whenStable();
     expect(announce).toHaveBeenCalledWith('Imported 2 readings from pc3.xlsx. The run is open for editing.');
     expect(navigate).toHaveBeenCalledWith(['/runs', 41, 'edit']);
+  });
+
+  it('replaces the readings of one of my drafts or returned runs, quoting the version the run has now', async () => {
+    const navigate = jest.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    const fixture = TestBed.createComponent(ImportPage);
+    await fixture.whenStable();
+    httpTesting.expectOne('/api/projects').flush({ items: [] });
+    const lists = httpTesting.match((r) => r.url === '/api/runs');
+    // Only one's own runs, and only those whose readings may still change.
+    expect(lists.map((r) => [r.request.params.get('state'), r.request.params.get('mine')])).toEqual([
+      ['draft', 'true'],
+      ['returned', 'true'],
+    ]);
+    lists[0].flush({ items: [{ id: 41, code: 'R-2026-0041', title: 'Argon heating', state: 'draft' }], total: 1, page: 1, pageSize: 100 });
+    lists[1].flush({ items: [{ id: 44, code: 'R-2026-0044', title: 'Nitrogen expansion', state: 'returned' }], total: 1, page: 1, pageSize: 100 });
+    (fixture.componentInstance as unknown as { previewArrived(p: ImportPreview): void }).previewArrived({ ...PREVIEW, errors: [], errorCount: 0 });
+    await fixture.whenStable();
+    httpTesting.expectOne('/api/imports/column-maps').flush({ items: [] });
+    await fixture.whenStable();
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    await (await loader.getHarness(MatRadioGroupHarness)).checkRadioButton({ label: /one of my drafts/ });
+    const draft = await (await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Draft' }))).getControl(MatSelectHarness);
+    await draft!.open();
+    const options = await draft!.getOptions();
+    expect(await Promise.all(options.map((o) => o.getText()))).toEqual([
+      'R-2026-0041: Argon heating (Draft)',
+      'R-2026-0044: Nitrogen expansion (Returned)',
+    ]);
+    await draft!.clickOptions({ text: /R-2026-0044/ });
+    const el = fixture.nativeElement as HTMLElement;
+    Array.from(el.querySelectorAll('button')).find((b) => b.textContent?.includes('Import'))!.click();
+    httpTesting.expectOne('/api/runs/44').flush({ id: 44, code: 'R-2026-0044', state: 'returned', version: 7 });
+    const commit = httpTesting.expectOne('/api/imports/12/commit');
+    expect(commit.request.body.target).toEqual({ runId: 44, version: 7 });
+    commit.flush({ importId: 12, runId: 44, version: 8, readings: 2 });
+    await fixture.whenStable();
+    expect(navigate).toHaveBeenCalledWith(['/runs', 44, 'edit']);
   });
 
   it('shows the problem and every row that stopped the import', async () => {

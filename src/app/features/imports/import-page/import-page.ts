@@ -9,14 +9,17 @@ import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
 import { HttpErrorResponse } from '@angular/common/http';
-import { catchError, of } from 'rxjs';
+import { Observable, catchError, forkJoin, map, of } from 'rxjs';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { ImportMappingStep } from '../import-mapping-step/import-mapping-step';
 import { ImportUpload } from '../import-upload/import-upload';
+import { ProjectsApi } from '../../projects/projects-api';
+import { Project } from '../../projects/projects.models';
+import { RunsApi } from '../../runs/runs-api';
+import { RUN_STATE_LABELS, RunPage, RunState, RunSummary } from '../../runs/runs.models';
 import { ImportsApi } from '../imports-api';
-import { CommitTarget, DraftOption, ImportMapping, ImportPreview, ProjectOption, RowError } from '../imports.models';
-import { RUN_STATE_LABELS } from '../../runs/runs.models';
+import { CommitTarget, ImportMapping, ImportPreview, RowError } from '../imports.models';
 
 const PROCESSES = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric'] as const;
 
@@ -31,11 +34,13 @@ const PROCESSES = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytrop
 })
 export class ImportPage {
   private readonly api = inject(ImportsApi);
+  private readonly projectsApi = inject(ProjectsApi);
+  private readonly runsApi = inject(RunsApi);
   private readonly router = inject(Router);
   private readonly announcer = inject(LiveAnnouncer);
 
   protected readonly processes = PROCESSES;
-  protected readonly stateLabels: Readonly<Record<string, string>> = RUN_STATE_LABELS;
+  protected readonly stateLabels = RUN_STATE_LABELS;
   protected readonly preview = signal<ImportPreview | null>(null);
   protected readonly mapping = signal<ImportMapping | null>(null);
   protected readonly targetKind = signal<'new' | 'existing'>('new');
@@ -49,8 +54,21 @@ export class ImportPage {
   protected readonly problem = signal<ProblemDetails | null>(null);
   protected readonly rowErrors = signal<RowError[]>([]);
 
-  protected readonly projects = toSignal(this.api.projects().pipe(catchError(() => of([] as ProjectOption[]))), { initialValue: [] });
-  protected readonly drafts = toSignal(this.api.myEditableRuns().pipe(catchError(() => of([] as DraftOption[]))), { initialValue: [] });
+  protected readonly projects = toSignal(
+    this.projectsApi.list().pipe(
+      map((body) => body.items),
+      catchError(() => of([] as Project[])),
+    ),
+    { initialValue: [] },
+  );
+  /** One's own runs whose readings may be replaced: drafts and returned runs. */
+  protected readonly drafts = toSignal(
+    forkJoin([this.myRuns('draft'), this.myRuns('returned')]).pipe(
+      map(([drafts, returned]) => [...drafts.items, ...returned.items]),
+      catchError(() => of([] as RunSummary[])),
+    ),
+    { initialValue: [] },
+  );
 
   /** Why the Import button is not ready yet, or null when it is. */
   protected readonly notReady = computed(() => {
@@ -81,8 +99,9 @@ export class ImportPage {
     this.rowErrors.set([]);
     if (this.targetKind() === 'existing') {
       const runId = this.runId()!;
-      this.api.runVersion(runId).subscribe({
-        next: (version) => this.commit(preview, mapping, { runId, version }),
+      // Replacing the readings quotes the run's current version.
+      this.runsApi.get(runId).subscribe({
+        next: (run) => this.commit(preview, mapping, { runId, version: run.version }),
         error: (error: unknown) => this.fail(error),
       });
     } else {
@@ -90,6 +109,10 @@ export class ImportPage {
         newRun: { projectId: this.projectId()!, title: this.title().trim(), process: this.process(), runDate: this.runDate() },
       });
     }
+  }
+
+  private myRuns(state: RunState): Observable<RunPage> {
+    return this.runsApi.list({ state, mine: true, pageSize: 100 });
   }
 
   private commit(preview: ImportPreview, mapping: ImportMapping, target: CommitTarget): void {

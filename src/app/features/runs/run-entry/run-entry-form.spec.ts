@@ -1,10 +1,10 @@
-import { Gas } from '../runs.models';
+import { Gas } from '../../gases/gases.models';
 import { ReadingsSheet } from './readings-grid/readings-sheet';
 import { RunForm, createBody, createRunForm, loadDraft, readingsBody, setupOf, updateBody } from './run-entry-form';
 
 const gases: Gas[] = [
-  { id: 3, code: 'Ar', name: 'Argon', molarMass: 0.039948 },
-  { id: 1, code: 'N2', name: 'Nitrogen', molarMass: 0.0280134 },
+  { id: 3, code: 'Ar', name: 'Argon', molarMass: 0.039948, model: 'monatomic' },
+  { id: 1, code: 'N2', name: 'Nitrogen', molarMass: 0.0280134, model: 'shomate' },
 ];
 
 function filledForm(): RunForm {

@@ -1,10 +1,8 @@
-import { standardizationControls, standardizationFromSetup, standardizationSetup } from './standardization-fields';
 import { AbstractControl, FormControl, FormGroup, ValidationErrors, Validators } from '@angular/forms';
 
 import {
   CreateRunBody,
   DraftSetup,
-  Gas,
   READING_CHANNELS,
   ReadingChannel,
   ReadingsBody,
@@ -12,8 +10,10 @@ import {
   RunProcess,
   UpdateRunBody,
 } from '../runs.models';
+import { Gas } from '../../gases/gases.models';
 import { ReadingsSheet, SheetKey } from './readings-grid/readings-sheet';
 import { CHANNEL_KINDS, DEFAULT_UNITS, displayFromSi } from './unit-table';
+import { standardizationControls, standardizationFromSetup, standardizationSetup } from './standardization-fields';
 
 export type GasModel = 'species' | 'equipartition' | 'calorimeter';
 export type AmountFrom = 'none' | 'moles' | 'mass' | 'initialState';

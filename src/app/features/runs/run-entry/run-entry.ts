@@ -16,10 +16,16 @@ import { firstValueFrom, forkJoin, map, merge } from 'rxjs';
 
 import { HeadingFocus } from '../../../core/layout/heading-focus';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ApparatusApi } from '../../apparatus/apparatus-api';
+import { Apparatus } from '../../apparatus/apparatus.models';
+import { GasesApi } from '../../gases/gases-api';
+import { Gas } from '../../gases/gases.models';
 import { InstrumentsApi } from '../../instruments/instruments-api';
 import { Instrument } from '../../instruments/instruments.models';
+import { ProjectsApi } from '../../projects/projects-api';
+import { Project } from '../../projects/projects.models';
 import { RunsApi } from '../runs-api';
-import { ApparatusItem, DraftSetup, Gas, Project, READING_CHANNELS, RUN_PROCESSES, RUN_STATE_LABELS, ReadingChannel, RunDraft } from '../runs.models';
+import { DraftSetup, READING_CHANNELS, RUN_PROCESSES, RUN_STATE_LABELS, ReadingChannel, RunDraft } from '../runs.models';
 import { RunChecklist } from '../run-checklist/run-checklist';
 import { InstrumentPicker } from './instrument-picker/instrument-picker';
 import { GridColumn, ReadingsGrid } from './readings-grid/readings-grid';
@@ -76,6 +82,9 @@ function today(): string {
 })
 export class RunEntry implements OnInit {
   private readonly api = inject(RunsApi);
+  private readonly projectsApi = inject(ProjectsApi);
+  private readonly gasesApi = inject(GasesApi);
+  private readonly apparatusApi = inject(ApparatusApi);
   private readonly instrumentsApi = inject(InstrumentsApi);
   private readonly router = inject(Router);
   private readonly announcer = inject(LiveAnnouncer);
@@ -98,7 +107,7 @@ export class RunEntry implements OnInit {
 
   protected readonly projects = signal<Project[]>([]);
   protected readonly gases = signal<Gas[]>([]);
-  protected readonly apparatus = signal<ApparatusItem[]>([]);
+  protected readonly apparatus = signal<Apparatus[]>([]);
   protected readonly instruments = signal<Instrument[]>([]);
   protected readonly loading = signal(true);
   protected readonly loadProblem = signal<ProblemDetails | null>(null);
@@ -171,9 +180,9 @@ export class RunEntry implements OnInit {
 
   ngOnInit(): void {
     forkJoin({
-      projects: this.api.projects(),
-      gases: this.api.gases(),
-      apparatus: this.api.apparatus(),
+      projects: this.projectsApi.list(),
+      gases: this.gasesApi.list(),
+      apparatus: this.apparatusApi.list(),
       instruments: this.instrumentsApi.list(),
     }).subscribe({
       next: (lists) => {
