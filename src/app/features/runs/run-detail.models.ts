@@ -1,6 +1,6 @@
 import type { CalorimetryResult } from './calorimetry.models';
 import type { Verdict } from '../../shared/verdict-display/verdict-display';
-import type { RunReadings, RunSetup } from './run-entry.models';
+import type { RunProcess, RunReadings, RunSetup } from './run-entry.models';
 import type { RunState } from './runs.models';
 
 // The run page: the run record, its balance result, history, signatures and review.
@@ -44,23 +44,26 @@ export interface RunRevision {
   createdAt: string;
 }
 
-/** `GET /api/runs/:id`. */
+/** `GET /api/runs/:id`: the run page and run entry both read it; readings are SI columns, one value per time point. */
 export interface RunRecord {
   id: number;
   code: string;
   revision: number;
+  projectId: number;
+  projectName: string;
+  authorId: number;
+  authorName: string;
   title: string;
-  process: string;
+  process: RunProcess;
   state: RunState;
   /** Bumped on every change; quoted back on writes. */
   version: number;
   verdict: Verdict | null;
   runDate: string;
+  gasId: number | null;
+  apparatusId: number | null;
+  /** The reviewer's reason, while the run is returned for correction. */
   returnReason: string | null;
-  apparatusId?: number | null;
-  authorId: number;
-  authorName: string;
-  projectName: string;
   setup: RunSetup;
   readings: RunReadings;
   series: RunSeries | null;

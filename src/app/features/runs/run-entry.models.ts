@@ -55,36 +55,19 @@ export type AmountSetup =
   | { from: 'mass'; mass: EnteredQuantity; molarMass?: { value: number; u?: number } }
   | { from: 'initialState'; Z?: number };
 
-/** The run's setup document (server/runs/run-setup.ts); unknown keys are kept as they are. */
-export interface DraftSetup {
+/** The run's setup document (server/runs/run-setup.ts, checked by server/runs/setup-validation.ts); unknown keys are kept as they are. */
+export interface RunSetup {
   gas?: GasSetup;
   amount?: AmountSetup;
   /** Polytropic index n. */
   processIndex?: number;
   /** pressure.instrumentId: the register barometer that read it. */
   ambient?: { pressure?: EnteredQuantity & { instrumentId?: number }; temperature?: EnteredQuantity };
-  apparatus?: Record<string, unknown>;
+  /** Apparatus values the run carries itself (imported documents, run-specific values). */
+  apparatus?: { name?: string; ratedPressure?: EnteredQuantity; [key: string]: unknown };
   time?: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; origin?: string };
   channels?: Partial<Record<ReadingChannel, ChannelEntry>>;
   [key: string]: unknown;
-}
-
-/** `GET /api/runs/:id` as run entry reads it; readings are SI columns, one value per time point. */
-export interface RunDraft {
-  id: number;
-  code: string;
-  projectId: number;
-  title: string;
-  process: RunProcess;
-  state: RunState;
-  runDate: string;
-  gasId: number | null;
-  apparatusId: number | null;
-  version: number;
-  setup: DraftSetup | null;
-  readings: { count: number; time: number[] } & Record<ReadingChannel, (number | null)[]>;
-  /** The reviewer's reason, while the run is returned for correction. */
-  returnReason?: string | null;
 }
 
 /** `GET /api/runs/:id/checklist`: what a draft still lacks before submit, in the form's words. */
@@ -103,7 +86,7 @@ export interface CreateRunBody {
   runDate: string;
   gasId?: number;
   apparatusId?: number;
-  setup?: DraftSetup;
+  setup?: RunSetup;
 }
 
 /** Body of `PATCH /api/runs/:id`. */
@@ -114,7 +97,7 @@ export interface UpdateRunBody {
   runDate?: string;
   gasId?: number | null;
   apparatusId?: number | null;
-  setup?: DraftSetup;
+  setup?: RunSetup;
 }
 
 /** Body of `PUT /api/runs/:id/readings`: values in each channel's own unit; null for an empty cell. */
@@ -129,16 +112,6 @@ export interface RunVersion {
   id: number;
   code?: string;
   version: number;
-}
-
-/** The run's setup as stored: channels with entered units, ambient, apparatus, gas (only what the run page reads). */
-export interface RunSetup {
-  gas?: { model: 'species' | 'equipartition' | 'calorimeter' | string; species?: string; f?: number };
-  channels?: Record<string, { unit: string; instrument?: string; reference?: string }>;
-  /** pressure.instrumentId: the register barometer that read it. */
-  ambient?: { pressure?: EnteredQuantity & { instrumentId?: number }; temperature?: EnteredQuantity };
-  apparatus?: { name?: string; ratedPressure?: EnteredQuantity; [key: string]: unknown };
-  [key: string]: unknown;
 }
 
 /** SI units of the readings the server returns. */

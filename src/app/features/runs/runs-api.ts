@@ -8,7 +8,6 @@ import {
   ReadingsBody,
   ReviewAction,
   RunChecklistResponse,
-  RunDraft,
   HistoryPage,
   RunPage,
   RunQuery,
@@ -30,11 +29,6 @@ export class RunsApi {
       if (value !== null && value !== undefined && value !== false) set[key] = value === true ? 'true' : value;
     }
     return this.http.get<RunPage>('/api/runs', { params: new HttpParams({ fromObject: set }) });
-  }
-
-  /** One run with its setup and its readings in SI, for editing. */
-  draft(id: number): Observable<RunDraft> {
-    return this.http.get<RunDraft>(`/api/runs/${id}`);
   }
 
   /** What a draft still lacks before submit, in the form's words (changes nothing). */
@@ -62,7 +56,7 @@ export class RunsApi {
     return this.http.post<RunVersion>(`/api/runs/${id}/submit`, { version });
   }
 
-  /** The run with its readings, series, result summary, signatures and revisions. */
+  /** The run with its setup, readings (SI), series, result summary, signatures and revisions. */
   get(id: number): Observable<RunRecord> {
     return this.http.get<RunRecord>(`/api/runs/${id}`);
   }

@@ -143,16 +143,12 @@ describe('run entry form', () => {
     const sheet = loadDraft(
       form,
       {
-        id: 8,
-        code: 'R-2026-0008',
         projectId: 2,
         title: 'Bath calibration',
         process: 'isobaric',
-        state: 'draft',
         runDate: '2026-03-14',
         gasId: 1,
         apparatusId: null,
-        version: 3,
         setup: {
           gas: { model: 'species', species: 'N2' },
           time: { unit: 'min' },

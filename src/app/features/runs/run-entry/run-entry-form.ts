@@ -2,11 +2,11 @@ import { AbstractControl, FormControl, FormGroup, ValidationErrors, Validators }
 
 import {
   CreateRunBody,
-  DraftSetup,
+  RunSetup,
   READING_CHANNELS,
   ReadingChannel,
   ReadingsBody,
-  RunDraft,
+  RunRecord,
   RunProcess,
   UpdateRunBody,
 } from '../runs.models';
@@ -133,7 +133,7 @@ export function enabledChannels(value: RunFormValue): ReadingChannel[] {
 }
 
 /** The POST body, or null while project, title, process or date are still missing. */
-export function createBody(form: RunForm, gases: readonly Gas[], base: DraftSetup = {}): CreateRunBody | null {
+export function createBody(form: RunForm, gases: readonly Gas[], base: RunSetup = {}): CreateRunBody | null {
   const { projectId, title, process, runDate } = form.controls;
   if (projectId.invalid || title.invalid || process.invalid || runDate.invalid) {
     return null;
@@ -152,7 +152,7 @@ export function createBody(form: RunForm, gases: readonly Gas[], base: DraftSetu
 }
 
 /** The PATCH body: every field the form owns, at the given version. */
-export function updateBody(version: number, form: RunForm, gases: readonly Gas[], base: DraftSetup = {}): UpdateRunBody {
+export function updateBody(version: number, form: RunForm, gases: readonly Gas[], base: RunSetup = {}): UpdateRunBody {
   const v = form.getRawValue();
   return {
     version,
@@ -171,9 +171,9 @@ const withU = (u: number | null) => (u !== null ? { u } : {});
  * The setup document from the form, on top of what the run already held: keys the form does not
  * own (notes, run-specific apparatus values, described instruments) pass through unchanged.
  */
-export function setupOf(v: RunFormValue, gases: readonly Gas[], base: DraftSetup = {}): DraftSetup {
+export function setupOf(v: RunFormValue, gases: readonly Gas[], base: RunSetup = {}): RunSetup {
   const { gas: _gas, amount: _amount, processIndex: _n, ambient: _ambient, channels: _channels, purpose: _p, heatSource: _h, ...kept } = base;
-  const setup: DraftSetup = { ...kept, time: { unit: v.timeUnit }, ...standardizationSetup(v.standardization, v.gasModel === 'calorimeter') };
+  const setup: RunSetup = { ...kept, time: { unit: v.timeUnit }, ...standardizationSetup(v.standardization, v.gasModel === 'calorimeter') };
   const species = gases.find((g) => g.id === v.gasId)?.code;
   if (v.gasModel === 'species' && species) {
     setup.gas = { model: 'species', species };
@@ -194,7 +194,7 @@ export function setupOf(v: RunFormValue, gases: readonly Gas[], base: DraftSetup
   if (v.process === 'polytropic' && v.processIndex !== null) {
     setup.processIndex = v.processIndex;
   }
-  const ambient: NonNullable<DraftSetup['ambient']> = {};
+  const ambient: NonNullable<RunSetup['ambient']> = {};
   if (v.ambientPressure !== null) {
     ambient.pressure = {
       value: v.ambientPressure, unit: v.ambientPressureUnit, ...withU(v.ambientPressureU),
@@ -214,8 +214,8 @@ export function setupOf(v: RunFormValue, gases: readonly Gas[], base: DraftSetup
   return setup;
 }
 
-function channelEntries(v: RunFormValue, base: DraftSetup): NonNullable<DraftSetup['channels']> {
-  const out: NonNullable<DraftSetup['channels']> = {};
+function channelEntries(v: RunFormValue, base: RunSetup): NonNullable<RunSetup['channels']> {
+  const out: NonNullable<RunSetup['channels']> = {};
   for (const name of enabledChannels(v)) {
     const c = v.channels[name];
     const described = base.channels?.[name]?.instrument;
@@ -229,7 +229,7 @@ function channelEntries(v: RunFormValue, base: DraftSetup): NonNullable<DraftSet
 }
 
 /** The PUT readings body for the visible columns. */
-export function readingsBody(version: number, v: RunFormValue, sheet: ReadingsSheet, base: DraftSetup = {}): ReadingsBody {
+export function readingsBody(version: number, v: RunFormValue, sheet: ReadingsSheet, base: RunSetup = {}): ReadingsBody {
   const names = enabledChannels(v);
   const values = sheet.values(['time', ...names]);
   const entries = channelEntries(v, base);
@@ -240,9 +240,12 @@ export function readingsBody(version: number, v: RunFormValue, sheet: ReadingsSh
   return { version, time: { unit: v.timeUnit, values: values.time }, channels };
 }
 
+/** What run entry reads back from `GET /api/runs/:id`. */
+export type StoredDraft = Pick<RunRecord, 'projectId' | 'title' | 'process' | 'runDate' | 'gasId' | 'apparatusId' | 'setup' | 'readings'>;
+
 /** Fills the form and a new sheet from a stored draft; readings shown back in their entered units. */
-export function loadDraft(form: RunForm, draft: RunDraft, gases: readonly Gas[]): ReadingsSheet {
-  const setup = draft.setup ?? {};
+export function loadDraft(form: RunForm, draft: StoredDraft, gases: readonly Gas[]): ReadingsSheet {
+  const setup = draft.setup;
   const gas = setup.gas;
   const amount = setup.amount;
   const speciesId = gas?.model === 'species' ? gases.find((g) => g.code === gas.species)?.id : undefined;

@@ -25,7 +25,7 @@ import { Instrument } from '../../instruments/instruments.models';
 import { ProjectsApi } from '../../projects/projects-api';
 import { Project } from '../../projects/projects.models';
 import { RunsApi } from '../runs-api';
-import { DraftSetup, READING_CHANNELS, RUN_PROCESSES, RUN_STATE_LABELS, ReadingChannel, RunDraft } from '../runs.models';
+import { RunSetup, READING_CHANNELS, RUN_PROCESSES, RUN_STATE_LABELS, ReadingChannel, RunRecord } from '../runs.models';
 import { RunChecklist } from '../run-checklist/run-checklist';
 import { InstrumentPicker } from './instrument-picker/instrument-picker';
 import { GridColumn, ReadingsGrid } from './readings-grid/readings-grid';
@@ -111,7 +111,7 @@ export class RunEntry implements OnInit {
   protected readonly instruments = signal<Instrument[]>([]);
   protected readonly loading = signal(true);
   protected readonly loadProblem = signal<ProblemDetails | null>(null);
-  protected readonly locked = signal<RunDraft | null>(null);
+  protected readonly locked = signal<RunRecord | null>(null);
   /** The reviewer's reason on a returned run, shown above the form. */
   protected readonly returnReason = signal<string | null>(null);
   protected readonly stateLabels = RUN_STATE_LABELS;
@@ -120,7 +120,7 @@ export class RunEntry implements OnInit {
   /** Set by the first submit: from then on every unmet rule shows, touched or not. */
   protected readonly triedSubmit = signal(false);
   /** The setup as last loaded: keys the form does not own pass through from here. */
-  private readonly setupBase = signal<DraftSetup>({});
+  private readonly setupBase = signal<RunSetup>({});
   /** Change subscriptions are made once, on the first begin(); a reload only restarts autosave. */
   private subscribed = false;
 
@@ -264,14 +264,14 @@ export class RunEntry implements OnInit {
   private async loadRun(id: number): Promise<void> {
     this.loading.set(true);
     try {
-      const draft = await firstValueFrom(this.api.draft(id));
+      const draft = await firstValueFrom(this.api.get(id));
       if (draft.state !== 'draft' && draft.state !== 'returned') {
         this.locked.set(draft);
         this.loading.set(false);
         return;
       }
       this.returnReason.set(draft.state === 'returned' ? (draft.returnReason ?? null) : null);
-      this.setupBase.set(draft.setup ?? {});
+      this.setupBase.set(draft.setup);
       this.sheet.set(loadDraft(this.form, draft, this.gases()));
       this.begin(draft);
     } catch (error: unknown) {
@@ -279,7 +279,7 @@ export class RunEntry implements OnInit {
     }
   }
 
-  private begin(draft: RunDraft | null): void {
+  private begin(draft: RunRecord | null): void {
     const source: AutosaveSource = {
       create: () =>
         createBody(this.form, this.gases(), this.setupBase()) ??

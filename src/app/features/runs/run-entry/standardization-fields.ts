@@ -1,6 +1,6 @@
 import { FormControl, FormGroup } from '@angular/forms';
 
-import type { DraftSetup } from '../run-entry.models';
+import type { RunSetup } from '../run-entry.models';
 
 /**
  * The "standardization run" part of the entry form: a calorimeter run with a known heat input, electrical
@@ -27,7 +27,7 @@ export function standardizationControls() {
 export type StandardizationValue = ReturnType<ReturnType<typeof standardizationControls>['getRawValue']>;
 
 /** The purpose and heat source the setup document gets (nothing for a measurement or a gas run). */
-export function standardizationSetup(v: StandardizationValue, calorimeter: boolean): Partial<DraftSetup> {
+export function standardizationSetup(v: StandardizationValue, calorimeter: boolean): Partial<RunSetup> {
   if (!calorimeter || v.purpose !== 'standardization') return {};
   if (v.kind === 'electrical') return { purpose: 'standardization', heatSource: { kind: 'electrical' } };
   const withU = (u: number | null) => (u !== null ? { u } : {});
@@ -52,7 +52,7 @@ interface StoredHeatSource {
 }
 
 /** Form values from a stored setup. */
-export function standardizationFromSetup(setup: DraftSetup): Partial<StandardizationValue> {
+export function standardizationFromSetup(setup: RunSetup): Partial<StandardizationValue> {
   if (setup['purpose'] !== 'standardization') return { purpose: 'measurement' };
   const src = (setup['heatSource'] ?? {}) as StoredHeatSource;
   if (src.kind !== 'reference-material') return { purpose: 'standardization', kind: 'electrical' };
