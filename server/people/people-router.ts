@@ -1,65 +1,27 @@
-import bcrypt from 'bcryptjs';
-import { asc, eq, sql } from 'drizzle-orm';
 import { Router } from 'express';
 import type { Database } from '../../db/client';
-import { people } from '../../db/schema';
-import { recordAudit } from '../audit/audit-service';
-import { BCRYPT_COST } from '../auth/auth-service';
-import { badRequest, conflict, notFound } from '../core/problem';
 import { idParam } from '../core/route-params';
 import { requireRole } from '../core/session';
 import { validateBody } from '../core/validate-body';
 import { CreatePersonDto, UpdatePersonDto } from './people-dto';
+import { PeopleService } from './people-service';
 
-const publicColumns = { id: people.id, email: people.email, name: people.name, role: people.role, active: people.active, lockedUntil: people.lockedUntil, createdAt: people.createdAt };
-
+/** Accounts are the administrator's alone. */
 export function peopleRouter(db: Database): Router {
+  const service = new PeopleService(db);
   const router = Router();
-
   router.get('/', requireRole('admin'), async (_req, res) => {
-    res.json({ items: await db.select(publicColumns).from(people).orderBy(asc(people.name)) });
+    res.json({ items: await service.list() });
   });
-
   router.post('/', requireRole('admin'), async (req, res) => {
     const body = await validateBody(CreatePersonDto, req.body);
-    const email = body.email.trim().toLowerCase();
-    const hash = await bcrypt.hash(body.password, BCRYPT_COST);
-    const row = await db.transaction(async (tx) => {
-      const [existing] = await tx.select({ id: people.id }).from(people).where(eq(people.email, email));
-      if (existing) throw conflict(`${email} already has an account.`);
-      const [created] = await tx.insert(people).values({ email, name: body.name.trim(), role: body.role, passwordHash: hash }).returning(publicColumns);
-      await recordAudit(tx, { actorId: req.person!.id, actorEmail: req.person!.email, action: 'person.create', entityType: 'person', entityId: created.id, after: created, ip: req.ip });
-      return created;
-    });
-    res.status(201).json(row);
+    const row = await service.create(req.person!, body, req.ip ?? null);
+    res.status(201).location(`/api/people/${row.id}`).json(row);
   });
-
   router.patch('/:id', requireRole('admin'), async (req, res) => {
     const id = idParam(req.params['id'], 'person');
     const body = await validateBody(UpdatePersonDto, req.body);
-    if (id === req.person!.id && (body.role !== undefined && body.role !== 'admin' || body.active === false)) {
-      throw badRequest('You cannot remove your own administrator access; ask another administrator.');
-    }
-    const hash = body.password ? await bcrypt.hash(body.password, BCRYPT_COST) : undefined;
-    const row = await db.transaction(async (tx) => {
-      const [before] = await tx.select(publicColumns).from(people).where(eq(people.id, id)).for('update');
-      if (!before) throw notFound(`There is no person with id ${id}.`);
-      const [after] = await tx.update(people).set({
-        ...(body.name !== undefined ? { name: body.name.trim() } : {}),
-        ...(body.role !== undefined ? { role: body.role } : {}),
-        ...(body.active !== undefined ? { active: body.active } : {}),
-        ...(body.unlock ? { lockedUntil: null, failedAttempts: 0 } : {}),
-        // A new password or a deactivation ends the person's open sessions.
-        ...(hash ? { passwordHash: hash, sessionsValidAfter: sql`now()` } : {}),
-        ...(body.active === false ? { sessionsValidAfter: sql`now()` } : {}),
-        updatedAt: sql`now()`,
-      }).where(eq(people.id, id)).returning(publicColumns);
-      // The audit trail records that a password changed, never the password or its hash.
-      await recordAudit(tx, { actorId: req.person!.id, actorEmail: req.person!.email, action: 'person.update', entityType: 'person', entityId: id, before, after: { ...after, ...(hash ? { passwordChanged: true } : {}) }, ip: req.ip });
-      return after;
-    });
-    res.json(row);
+    res.json(await service.update(req.person!, id, body, req.ip ?? null));
   });
-
   return router;
 }

@@ -98,13 +98,3 @@ describe('GET /api/home', () => {
     expect(review.count).toBeGreaterThanOrEqual(3);
   });
 });
-
-describe('GET /api/people', () => {
-  it('is for administrators only', async () => {
-    const admin = await clientAs(h.app, 'admin');
-    const res = await admin.get('/api/people');
-    expect(res.status).toBe(200);
-    expect(res.body.items[0]).not.toHaveProperty('passwordHash');
-    expect((await (await clientAs(h.app, 'technician')).get('/api/people')).status).toBe(403);
-  });
-});
