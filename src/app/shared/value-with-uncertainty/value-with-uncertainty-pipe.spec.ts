@@ -37,6 +37,13 @@ describe('value ± U formatting', () => {
     expect(formatWithUncertainty(10.04, 0.12, 'K', 3)).toBe('10.04 ± 0.12 K (k = 3)');
   });
 
+  it('prints a standard uncertainty without a coverage factor when k is null, still to two significant digits', () => {
+    // The fitted heat-loss coefficient that printed as "0.121 ± 0.000 W/K" with a fixed three decimals
+    expect(formatWithUncertainty(0.1210843, 0.000231, 'W/K', null)).toBe('0.12108 ± 0.00023 W/K');
+    expect(formatWithUncertainty(4851.73, 4.62, 'J/K', null)).toBe('4851.7 ± 4.6 J/K');
+    expect(new WithUncertaintyPipe().transform(4851.73, 4.62, 'J/K', null)).toBe('4851.7 ± 4.6 J/K');
+  });
+
   it('shows a dash for a missing value in the pipe', () => {
     const pipe = new WithUncertaintyPipe();
     expect(pipe.transform(null, 0.1, 'J')).toBe('—');

@@ -33,11 +33,14 @@ export function roundToUncertainty(x: number, U: number): RoundedValue {
   return { value: digits(roundAt(x, place), place), uncertainty: digits(roundAt(U, place), place) };
 }
 
-/** `x ± U unit (k = 2)`, rounded per GUM 7.2.6. */
-export function formatWithUncertainty(x: number, U: number, unit = '', k = 2): string {
+/**
+ * `x ± U unit (k = 2)`, rounded per GUM 7.2.6. With k = null the uncertainty is a standard uncertainty u
+ * (a page that says so once) and no coverage factor is printed: `x ± u unit`.
+ */
+export function formatWithUncertainty(x: number, U: number, unit = '', k: number | null = 2): string {
   const { value, uncertainty } = roundToUncertainty(x, U);
   const withUnit = unit ? `${uncertainty} ${unit}` : uncertainty;
-  return `${value} ± ${withUnit} (k = ${k})`;
+  return k === null ? `${value} ± ${withUnit}` : `${value} ± ${withUnit} (k = ${k})`;
 }
 
 /** Rounds x to a multiple of 10^place; toPrecision first so 0.1 + 0.2 style noise does not tip a half. */
@@ -65,10 +68,10 @@ function group(text: string): string {
   return fraction === undefined ? grouped : `${grouped}.${fraction}`;
 }
 
-/** `{{ x | withUncertainty: U : 'J' }}` → `−60.50 ± 0.30 J (k = 2)`. */
+/** `{{ x | withUncertainty: U : 'J' }}` → `−60.50 ± 0.30 J (k = 2)`; `{{ h | withUncertainty: u : 'W/K' : null }}` → `0.12108 ± 0.00023 W/K`. */
 @Pipe({ name: 'withUncertainty' })
 export class WithUncertaintyPipe implements PipeTransform {
-  transform(x: number | null | undefined, U: number | null | undefined, unit = '', k = 2): string {
+  transform(x: number | null | undefined, U: number | null | undefined, unit = '', k: number | null = 2): string {
     if (x === null || x === undefined || U === null || U === undefined) {
       return '—';
     }

@@ -12,6 +12,7 @@ import { RouterLink } from '@angular/router';
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { WithUncertaintyPipe } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
 import { ControlChart } from './control-chart';
 import { StandardizationApi } from './standardization-api';
 import { STANDARDIZATION_MEANINGS, StandardizationOverview } from './standardization.models';
@@ -19,7 +20,7 @@ import { STANDARDIZATION_MEANINGS, StandardizationOverview } from './standardiza
 /** One apparatus: its standardization series on a control chart, the standardization in force, and its history. */
 @Component({
   selector: 'qw-apparatus-standardization',
-  imports: [DecimalPipe, RouterLink, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, ControlChart],
+  imports: [DecimalPipe, RouterLink, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, ControlChart, WithUncertaintyPipe],
   templateUrl: './apparatus-standardization.html',
   styleUrl: './apparatus-standardization.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
