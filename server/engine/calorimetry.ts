@@ -7,7 +7,7 @@ import { propagate } from './propagation';
 import type { RunModel } from './run-model';
 import type { RunDocument } from './run-document';
 import type { RunSeries } from './series';
-import { analyseRise, PeriodError, type RiseMethod, type TemperatureRise, type ValueU } from './temperature-rise';
+import { analyseRise, PeriodError, withThermometerGain, type RiseMethod, type TemperatureRise, type ValueU } from './temperature-rise';
 import { affineToSi } from './units';
 
 export interface HeatLeakFit {
@@ -50,7 +50,10 @@ export function analyseCalorimetry(doc: RunDocument, series: RunSeries, electric
     flags.push({ code: 'PERIODS_NOT_FOUND', reading: null, message: `No corrected temperature rise: ${e.message}. Give periods.mainStart and periods.mainEnd, or record longer fore- and after-periods.` });
     return { temperatureRise: null, heatLeakFit: null, energyEquivalent: null, flags };
   }
-  const { rise, newton } = analysis;
+  const { newton } = analysis;
+  // The thermometer's gain is common to both methods: it widens each u(ΔT_c) but not their disagreement (below).
+  const thermometer = series.T.instrument ? series.T.label.replace(/^temperature \((.*)\)$/, '$1') : null;
+  const rise = withThermometerGain(analysis.rise, series.T.comps.gain, thermometer);
   const rp = rise.regnaultPfaundler, dk = rise.dickinson;
   const uDiff = Math.hypot(rp.u, dk.u);
   if (Math.abs(rp.value - dk.value) > opts.k * uDiff) {
@@ -63,7 +66,9 @@ export function analyseCalorimetry(doc: RunDocument, series: RunSeries, electric
   let ee: EnergyEquivalent | null = null;
   if (doc.purpose === 'standardization' && doc.heatSource) {
     const known = doc.heatSource.kind === 'electrical' ? electrical : referenceMaterialHeat(doc.heatSource);
-    if (known && rise.corrected.value !== 0) ee = energyEquivalent(known, { ...rise.corrected, method: rise.method });
+    if (known && rise.corrected.value !== 0) {
+      ee = energyEquivalent(known, { value: rise.corrected.value, u: rise.uncertainty.fit, method: rise.method }, thermometer ? { label: thermometer, relativeU: series.T.comps.gain } : undefined);
+    }
   }
 
   const conv = convergenceTemperature(newton);

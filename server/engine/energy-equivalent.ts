@@ -69,13 +69,25 @@ export function referenceMaterialHeat(src: Extract<HeatSource, { kind: 'referenc
   return { value, u, sources, description: `${mg.toPrecision(6)} g ${src.material} × ${q.toPrecision(6)} J/g${(src.corrections ?? []).length ? ' + corrections' : ''}` };
 }
 
-/** ε = Q / ΔT with its budget; the corrected rise enters as one source. */
-export function energyEquivalent(known: KnownHeat, rise: { value: number; u: number; method: string }): EnergyEquivalent {
+/** The thermometer behind the rise: its relative gain uncertainty (from ± % of reading) and its name for the budget. */
+export interface ThermometerGain {
+  label: string;
+  relativeU: number;
+}
+
+/**
+ * ε = Q / ΔT with its budget. The corrected rise enters with the u of its drift fits and reading scatter; the
+ * thermometer's gain g, which scales ΔT_c to ΔT_c·(1 + g), is a row of its own with ∂ε/∂g = −Q/ΔT_c = −ε.
+ */
+export function energyEquivalent(known: KnownHeat, rise: { value: number; u: number; method: string }, thermometer?: ThermometerGain): EnergyEquivalent {
   const dT = rise.value;
   const value = known.value / dT;
   const entries = [
     ...known.sources.map((s) => ({ ...s, sensitivity: s.sensitivity / dT })),
-    { source: `corrected temperature rise (${rise.method})`, unit: 'K', value: dT, u: rise.u, sensitivity: -known.value / (dT * dT) },
+    { source: `corrected temperature rise (${rise.method}): drift fits and reading scatter`, unit: 'K', value: dT, u: rise.u, sensitivity: -known.value / (dT * dT) },
+    ...(thermometer && thermometer.relativeU > 0
+      ? [{ source: `thermometer gain (${thermometer.label})`, unit: '1 (relative gain)', value: 0, u: thermometer.relativeU, sensitivity: -value }]
+      : []),
   ];
   const u2 = entries.reduce((s, x) => s + (x.sensitivity * x.u) ** 2, 0);
   const budget = entries

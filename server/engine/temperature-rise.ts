@@ -44,9 +44,15 @@ export interface TemperatureRise {
     dickinsonTime: number;
   };
   drift: { fore: DriftOut; after: DriftOut };
-  /** Both corrected rises (for flags and screens). */
+  /** Both corrected rises (for flags and screens), u from the drift fits and the reading scatter alone. */
   regnaultPfaundler: ValueU;
   dickinson: ValueU;
+  /**
+   * The parts of u(corrected), K: the drift fits and reading scatter of the method used, and the thermometer's gain
+   * (a relative gain g scales every temperature difference, so ∂ΔT_c/∂g = ΔT_c). An offset common to all readings
+   * (a calibration certificate's U read as an offset, as the balance reads it) cancels in a rise.
+   */
+  uncertainty: { fit: number; thermometerGain: number; thermometer: string | null };
 }
 
 export interface DriftOut { rate: number; u: number; meanTemperature: number; meanTime: number; readings: number }
@@ -177,7 +183,22 @@ export function analyseRise(t: ArrayLike<number>, T: ArrayLike<number>, method: 
       drift: { fore: driftOut(fore), after: driftOut(after) },
       regnaultPfaundler: rp,
       dickinson: { value: dk.value, u: dk.u },
+      uncertainty: { fit: chosen.u, thermometerGain: 0, thermometer: null },
     },
+  };
+}
+
+/**
+ * Adds the thermometer's relative gain uncertainty (GUM 4.3.7 from its ± % of reading) to both corrected rises:
+ * u² = u_fit² + (g·ΔT_c)² (GUM 5.1.2; the gain is independent of the drift fits).
+ */
+export function withThermometerGain(rise: TemperatureRise, relativeGainU: number, thermometer: string | null): TemperatureRise {
+  const part = (v: ValueU) => Math.abs(v.value) * relativeGainU;
+  return {
+    ...rise,
+    corrected: { value: rise.corrected.value, u: Math.hypot(rise.corrected.u, part(rise.corrected)) },
+    alternative: { ...rise.alternative, u: Math.hypot(rise.alternative.u, part(rise.alternative)) },
+    uncertainty: { fit: rise.uncertainty.fit, thermometerGain: part(rise.corrected), thermometer },
   };
 }
 

@@ -1,4 +1,5 @@
 /** Engine version recorded in every result; bump on any change that can alter a number. */
 // 1.1.0: the Monte Carlo result carries a histogram of r; 1.2.0: corrected rise, heat-leak fit, energy equivalent.
 // 2.0.0: NASA Glenn Cp°, wall uptake C·ΔT on gas runs, volume offsets in n, real-gas ΔU, flags against propagated uncertainty.
-export const ENGINE_VERSION = '2.0.0';
+// 2.1.0: the thermometer's gain in u(ΔT_c) and its own row in the energy-equivalent budget.
+export const ENGINE_VERSION = '2.1.0';
