@@ -2,20 +2,9 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 
-import {
-  BalanceResponse,
-  CreateRunBody,
-  ReadingsBody,
-  ReviewAction,
-  RunChecklistResponse,
-  HistoryPage,
-  RunPage,
-  RunQuery,
-  RunRecord,
-  RunVersion,
-  SignatureRequest,
-  UpdateRunBody,
-} from './runs.models';
+import { RunPage, RunQuery } from './runs.models';
+import { CreateRunBody, ReadingsBody, RunChecklistResponse, RunVersion, UpdateRunBody } from './run-entry.models';
+import { BalanceResponse, HistoryPage, ReviewAction, RunRecord, SignatureRequest } from './run-detail.models';
 
 @Injectable({ providedIn: 'root' })
 export class RunsApi {

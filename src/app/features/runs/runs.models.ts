@@ -57,7 +57,3 @@ export interface RunPage {
   page: number;
   pageSize: number;
 }
-
-// Run entry and run page models live beside this file; importing from here keeps working.
-export * from './run-entry.models';
-export * from './run-detail.models';

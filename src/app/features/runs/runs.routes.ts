@@ -1,7 +1,7 @@
 import { Routes } from '@angular/router';
 
 import { roleGuard } from '../../core/auth/role-guard';
-import { RUN_AUTHORS } from './runs.models';
+import { RUN_AUTHORS } from './run-detail.models';
 
 export const runsRoutes: Routes = [
   {

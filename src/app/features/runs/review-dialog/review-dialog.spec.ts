@@ -9,7 +9,7 @@ import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 
-import { BalanceResult, REVIEW_MEANINGS, ReviewAction } from '../runs.models';
+import { BalanceResult, REVIEW_MEANINGS, ReviewAction } from '../run-detail.models';
 import { ReviewDialog, ReviewDialogData } from './review-dialog';
 
 function resultWith(verdict: BalanceResult['verdict'], En: number): BalanceResult {

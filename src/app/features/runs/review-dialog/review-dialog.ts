@@ -13,7 +13,7 @@ import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { WithUncertaintyPipe } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
 import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { RunsApi } from '../runs-api';
-import { BalanceResult, REVIEW_MEANINGS, ReviewAction, SignatureRequest } from '../runs.models';
+import { BalanceResult, REVIEW_MEANINGS, ReviewAction, SignatureRequest } from '../run-detail.models';
 
 /** What the dialog signs. */
 export interface ReviewDialogData {

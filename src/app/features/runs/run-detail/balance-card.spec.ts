@@ -1,6 +1,6 @@
 import { TestBed } from '@angular/core/testing';
 
-import type { BalanceResult } from '../runs.models';
+import type { BalanceResult } from '../run-detail.models';
 import { BalanceCard } from './balance-card';
 
 const base = {

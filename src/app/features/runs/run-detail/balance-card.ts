@@ -5,7 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { WithUncertaintyPipe, roundToUncertainty } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
 import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { McHistogramChart } from './mc-histogram';
-import { BalanceResult } from '../runs.models';
+import { BalanceResult } from '../run-detail.models';
 
 /** One side of the balance drawn as an interval on a shared scale (percent of the track). */
 interface IntervalBar {

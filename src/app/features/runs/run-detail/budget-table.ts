@@ -2,7 +2,7 @@ import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatTableModule } from '@angular/material/table';
 
-import { BudgetEntry } from '../runs.models';
+import { BudgetEntry } from '../run-detail.models';
 
 /** The uncertainty budget of r, largest share of u²(r) first. */
 @Component({

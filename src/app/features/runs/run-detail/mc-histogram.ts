@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input
 import type { ChartData, ChartOptions } from 'chart.js';
 import { BaseChartDirective } from 'ng2-charts';
 
-import type { McHistogram } from '../runs.models';
+import type { McHistogram } from '../run-detail.models';
 import { RUN_CHARTS, themeColor, withAlpha } from './run-charts';
 
 type Point = { x: number; y: number };

@@ -1,4 +1,5 @@
-import { BalanceResult, RunSetup } from '../runs.models';
+import { RunSetup } from '../run-entry.models';
+import { BalanceResult } from '../run-detail.models';
 
 /** A point of the P–V diagram: V in L, P in kPa. */
 export interface PvPoint {

@@ -1,7 +1,7 @@
 import { CdkVirtualScrollViewport, ScrollingModule } from '@angular/cdk/scrolling';
 import { ChangeDetectionStrategy, Component, computed, input, signal, viewChild } from '@angular/core';
 
-import { READING_CHANNELS, READING_SI_UNITS, ReadingChannel, RunReadings } from '../runs.models';
+import { READING_CHANNELS, READING_SI_UNITS, ReadingChannel, RunReadings } from '../run-entry.models';
 
 const CHANNEL_LABELS: Readonly<Record<'time' | ReadingChannel, string>> = {
   time: 'Time',

@@ -8,7 +8,7 @@ import { RouterTestingHarness } from '@angular/router/testing';
 import { routes } from '../../../app.routes';
 import { Auth } from '../../../core/auth/auth';
 import { Role } from '../../../core/auth/auth.models';
-import { BalanceResponse, BalanceResult, RunRecord } from '../runs.models';
+import { BalanceResponse, BalanceResult, RunRecord } from '../run-detail.models';
 
 // Invented demo figures of the Harrowgate lab; only their display is under test here.
 const run: RunRecord = {

@@ -2,7 +2,8 @@ import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { RouterLink } from '@angular/router';
 
-import { HistoryEvent, RUN_STATE_LABELS, RunRevision, RunSignature } from '../runs.models';
+import { RUN_STATE_LABELS } from '../runs.models';
+import { HistoryEvent, RunRevision, RunSignature } from '../run-detail.models';
 
 /** Audit actions in words people use. */
 const ACTION_LABELS: Readonly<Record<string, string>> = {

@@ -2,7 +2,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 
-import { CreateRunBody, ReadingsBody } from '../runs.models';
+import { CreateRunBody, ReadingsBody } from '../run-entry.models';
 import { AUTOSAVE_DELAY_MS, AutosaveSource, RunAutosave } from './run-autosave';
 
 const created: CreateRunBody = { projectId: 1, title: 'Argon heating', process: 'isochoric', runDate: '2026-11-30' };

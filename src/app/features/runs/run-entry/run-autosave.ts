@@ -3,7 +3,7 @@ import { firstValueFrom } from 'rxjs';
 
 import { toProblem } from '../../../core/http/problem-details';
 import { RunsApi } from '../runs-api';
-import { CreateRunBody, ReadingsBody, UpdateRunBody } from '../runs.models';
+import { CreateRunBody, ReadingsBody, UpdateRunBody } from '../run-entry.models';
 
 /** Where the draft stands against the server, for the saved indicator. */
 export type SaveState =

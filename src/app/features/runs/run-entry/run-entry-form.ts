@@ -2,14 +2,14 @@ import { AbstractControl, FormControl, FormGroup, ValidationErrors, Validators }
 
 import {
   CreateRunBody,
-  RunSetup,
   READING_CHANNELS,
   ReadingChannel,
   ReadingsBody,
-  RunRecord,
   RunProcess,
+  RunSetup,
   UpdateRunBody,
-} from '../runs.models';
+} from '../run-entry.models';
+import { RunRecord } from '../run-detail.models';
 import { Gas } from '../../gases/gases.models';
 import { ReadingsSheet, SheetKey } from './readings-grid/readings-sheet';
 import { CHANNEL_KINDS, DEFAULT_UNITS, displayFromSi } from './unit-table';

@@ -1,6 +1,6 @@
 import { FieldProblem } from '../../../core/http/problem-details';
 import { CHANNEL_LABELS } from './run-entry-form';
-import { ReadingChannel } from '../runs.models';
+import { ReadingChannel } from '../run-entry.models';
 
 const FIXED: Readonly<Record<string, string>> = {
   'ambient.pressure': 'The ambient pressure',

@@ -1,4 +1,4 @@
-import { ReadingChannel } from '../runs.models';
+import { ReadingChannel } from '../run-entry.models';
 
 /** Unit families the bench form offers; each channel and field belongs to one. */
 export type UnitKind =

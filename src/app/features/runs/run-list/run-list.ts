@@ -22,15 +22,8 @@ import { BackoffPoll } from '../../../shared/polling/backoff-poll';
 import { VERDICT_LOOKS, Verdict, VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { addressParams, pageRangeMessage } from '../../../shared/paging/paged-query';
 import { RunsApi } from '../runs-api';
-import {
-  RUN_AUTHORS,
-  RUN_STATES,
-  RUN_STATE_LABELS,
-  RunPage,
-  RunQuery,
-  RunSort,
-  RunState,
-} from '../runs.models';
+import { RUN_STATE_LABELS, RUN_STATES, RunPage, RunQuery, RunSort, RunState } from '../runs.models';
+import { RUN_AUTHORS } from '../run-detail.models';
 
 const DEFAULT_QUERY: RunQuery = {
   page: 1, pageSize: 25, state: null, verdict: null, project: null, author: null, mine: false, from: null, to: null, sort: 'updatedAt', dir: 'desc',
