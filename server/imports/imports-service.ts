@@ -15,7 +15,7 @@ import type { ColumnMapDto, CommitBody } from './imports-dto';
 import { parseMapping } from './imports-dto';
 import { checkMapping, checkRows } from './row-validation';
 import { buildTable, type ParsedTable } from './table-builder';
-import { readXlsx } from './xlsx-reader';
+import { readWorkbook } from './xlsx-off-thread';
 
 export interface UploadedFile {
   originalname: string;
@@ -32,7 +32,7 @@ export class ImportsService {
   async parse(file: UploadedFile, options: CsvOptions & { sheet?: string }): Promise<ParsedTable> {
     const kind = detectKind(file.originalname, file.buffer);
     const raw = kind === 'xlsx'
-      ? await readXlsx(file.buffer, file.originalname, this.limits, options.sheet)
+      ? await readWorkbook(file.buffer, file.originalname, this.limits, options.sheet)
       : readCsv(file.buffer, file.originalname, this.limits, options);
     return buildTable(raw, kind, file.originalname, this.limits);
   }

@@ -66,6 +66,19 @@ function readCentralDirectory(buf: Buffer): { entries: ZipEntry[]; dirOffset: nu
   return { entries, dirOffset };
 }
 
+/**
+ * What the central directory says the archive expands to, without inflating anything (0 when it
+ * cannot be read: the inspection then refuses the file with its own message). Only a hint for where
+ * to read the file: the inspection enforces the real sizes.
+ */
+export function declaredExpandedBytes(buf: Buffer): number {
+  try {
+    return readCentralDirectory(buf).entries.reduce((sum, e) => sum + e.uncompressedSize, 0);
+  } catch {
+    return 0;
+  }
+}
+
 const DATA_DESCRIPTOR = 0x08074b50;
 const disagree = (what: string) => unreadableFile(
   `The workbook's ZIP archive contradicts itself (${what}): its directory and its entries describe different content, so what Qwell checked ` +
