@@ -1,8 +1,8 @@
 import request from 'supertest';
 import { HttpProblem } from '../core/problem';
-import { startHarness, type ApiHarness } from '../testing/api-harness';
+import { startHarness, type ApiHarness } from '../../testing/api-harness';
 import type { ImportLimits } from './import-limits';
-import { deflatedZeros, xlsxBuffer, zipBomb, zipBuffer } from './import-test-files';
+import { deflatedZeros, xlsxBuffer, zipBomb, zipBuffer } from '../../testing/import-test-files';
 import { OFF_THREAD_FROM_EXPANDED_BYTES, readWorkbook } from './xlsx-off-thread';
 import { readXlsx } from './xlsx-reader';
 import { declaredExpandedBytes } from './zip-inspection';
