@@ -3,6 +3,7 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import type { BalanceSettings } from './engine';
 import { balanceSettingsFromEnv } from './balance/balance-settings';
+import { useFittedHeatLossFromEnv } from './standardizations/standardization-settings';
 import { DEMO_INSTITUTION } from '../db/seed/demo-lab';
 import { DEFAULT_LOCKOUT } from './auth/password-attempts';
 
@@ -32,6 +33,8 @@ export interface Config {
   mailDir: string;
   /** Engine settings of the lab. */
   balance: Required<Omit<BalanceSettings, 'seed'>>;
+  /** Runs pinned to a standardization use its fitted heat-loss coefficient h (QWELL_USE_FITTED_HEAT_LOSS; default off). */
+  useFittedHeatLoss: boolean;
   /** Take balance checks and scheduled jobs in this process (false for API-only processes). */
   worker: boolean;
   /** Days an upload never committed into a run is kept before the daily cleanup deletes it (QWELL_UPLOAD_RETENTION_DAYS). */
@@ -164,6 +167,7 @@ export function loadConfig(overrides: Partial<Config> = {}): Config {
     mailCatcher: process.env['QWELL_MAIL_CATCHER'] === '1',
     mailDir: process.env['QWELL_MAIL_DIR'] ?? join(dataDir, 'mail'),
     balance: balanceSettingsFromEnv(),
+    useFittedHeatLoss: useFittedHeatLossFromEnv(),
     worker: process.env['QWELL_WORKER'] !== '0',
     uploadRetentionDays: int('QWELL_UPLOAD_RETENTION_DAYS', 30),
     labName: process.env['QWELL_LAB_NAME'] ?? DEMO_INSTITUTION,

@@ -6,6 +6,7 @@ import type { Config } from '../config';
 import { checkRunDocument } from '../engine';
 import { projectAddresses, queueMail } from '../mail/outbox';
 import { loadRunDocument } from '../runs/run-loader';
+import type { RunSetup } from '../runs/run-setup';
 import { runStandardization } from '../standardizations/standardization-pin';
 import { runLink } from '../mail/run-link';
 import { plainProblem } from '../runs/submit-checklist';
@@ -20,7 +21,7 @@ export type CheckOutcome = 'stored' | 'stale' | 'invalid';
 export async function runBalanceCheck(db: Database, config: Config, runId: number, version: number): Promise<CheckOutcome> {
   const [run] = await db.select().from(runs).where(eq(runs.id, runId));
   if (!run || run.version !== version || run.state !== 'submitted') return 'stale';
-  const doc = await loadRunDocument(db, run, config.labName);
+  const doc = await loadRunDocument(db, run, config.labName, { useFittedHeatLoss: config.useFittedHeatLoss });
   // Engine work happens outside the transaction: it can take a second on a large run.
   const checked = checkRunDocument(doc, config.balance);
 
@@ -42,7 +43,7 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
       }]);
       return 'invalid';
     }
-    const pin = await runStandardization(tx, locked.apparatusId, locked.runDate);
+    const pin = await runStandardization(tx, locked.apparatusId, locked.runDate, { useFittedHeatLoss: config.useFittedHeatLoss, setup: (locked.setup ?? {}) as RunSetup });
     const result = { ...checked.result, standardization: pin.standardization, flags: pin.flag ? [...checked.result.flags, pin.flag] : checked.result.flags };
     await tx.update(balanceResults).set({ current: false }).where(and(eq(balanceResults.runId, runId), eq(balanceResults.current, true)));
     const [stored] = await tx.insert(balanceResults).values({

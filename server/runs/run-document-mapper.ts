@@ -144,18 +144,42 @@ export interface DocumentContext {
   register: ReadonlyMap<number, RegisterInstrument>;
   lab: string;
   operator: string;
-  /** The approved standardization in force on the run date: its ε replaces the register's heat capacity. */
-  standardization?: { energyEquivalent: number; energyEquivalentU: number } | null;
+  /**
+   * The approved standardization in force on the run date: its ε replaces the register's heat capacity, and its
+   * mean fitted h the register's heat-loss coefficient when the lab applies it (QWELL_USE_FITTED_HEAT_LOSS).
+   */
+  standardization?: PinnedConstants | null;
 }
 
-function apparatusOf(a: DocumentContext['apparatus'], extra: RunSetup['apparatus'], source: RunSetup['apparatusSource'], pinned?: DocumentContext['standardization']): Apparatus {
-  if (source === 'run') return { ...(extra ?? {}) };
+export interface PinnedConstants {
+  energyEquivalent: number;
+  energyEquivalentU: number;
+  heatLossCoefficient?: number | null;
+  heatLossCoefficientU?: number | null;
+  /** The lab setting: runs pinned to a standardization use its fitted h. */
+  applyHeatLoss?: boolean;
+}
+
+/**
+ * Whether a run's document takes its h from the pinned standardization: the lab applies fitted h, the
+ * standardization has one, and the run does not carry its own apparatus values (a complete run document, or an
+ * h typed for this run, take precedence as they do over the register).
+ */
+export function pinnedHeatLossApplies(setup: RunSetup, pinned: PinnedConstants | null | undefined): boolean {
+  return !!pinned?.applyHeatLoss && typeof pinned.heatLossCoefficient === 'number' && setup.apparatusSource !== 'run' && setup.apparatus?.heatLossCoefficient === undefined;
+}
+
+function apparatusOf(a: DocumentContext['apparatus'], setup: RunSetup, pinned?: DocumentContext['standardization']): Apparatus {
+  const extra = setup.apparatus;
+  if (setup.apparatusSource === 'run') return { ...(extra ?? {}) };
   const q = (value: number | null | undefined, unit: string, u?: number | null) =>
     value === null || value === undefined ? undefined : { value, unit, ...(u !== null && u !== undefined ? { u } : {}) };
   const out: Apparatus = {
     name: extra?.name ?? a?.name,
     heatCapacity: pinned ? q(pinned.energyEquivalent, 'J/K', pinned.energyEquivalentU) : q(a?.heatCapacity, 'J/K', a?.heatCapacityU),
-    heatLossCoefficient: q(a?.heatLossCoefficient, 'W/K', a?.heatLossCoefficientU),
+    heatLossCoefficient: pinnedHeatLossApplies(setup, pinned)
+      ? q(pinned!.heatLossCoefficient, 'W/K', pinned!.heatLossCoefficientU)
+      : q(a?.heatLossCoefficient, 'W/K', a?.heatLossCoefficientU),
     ratedPressure: q(a?.ratedPressure, 'Pa'),
     pistonBore: q(a?.bore, 'm'),
     vesselVolume: q(a?.fixedVolume, 'm3'),
@@ -212,7 +236,7 @@ export function storageToDocument(ctx: DocumentContext): RunDocument {
     gas,
     ...(setup.amount ? { amount: setup.amount } : {}),
     ambient,
-    apparatus: apparatusOf(ctx.apparatus, setup.apparatus, setup.apparatusSource, ctx.standardization),
+    apparatus: apparatusOf(ctx.apparatus, setup, ctx.standardization),
     instruments: uniqueInstruments,
     readings: readingsOut as unknown as Readings,
     ...(setup.purpose ? { purpose: setup.purpose } : {}),

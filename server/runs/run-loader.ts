@@ -26,8 +26,11 @@ export async function instrumentsOnDay(db: DbOrTx, ids: number[], day: string): 
   return map;
 }
 
-/** The run document of a stored run, with register instruments and apparatus as they were on the run date. */
-export async function loadRunDocument(db: DbOrTx, run: RunRow, labName: string): Promise<RunDocument> {
+/**
+ * The run document of a stored run, with register instruments and apparatus as they were on the run date, and the
+ * standardization in force (its ε; its fitted h too when `useFittedHeatLoss`, the lab setting).
+ */
+export async function loadRunDocument(db: DbOrTx, run: RunRow, labName: string, opts: { useFittedHeatLoss?: boolean } = {}): Promise<RunDocument> {
   const setup = (run.setup ?? {}) as RunSetup;
   const ids = Object.values(setup.channels ?? {}).flatMap((c) => (c?.instrumentId !== undefined ? [c.instrumentId] : []));
   if (setup.ambient?.pressure?.instrumentId !== undefined) ids.push(setup.ambient.pressure.instrumentId);
@@ -38,7 +41,8 @@ export async function loadRunDocument(db: DbOrTx, run: RunRow, labName: string):
     run.apparatusId ? db.select().from(apparatus).where(eq(apparatus.id, run.apparatusId)) : Promise.resolve([]),
     db.select({ name: people.name }).from(people).where(eq(people.id, run.authorId)),
   ]);
-  const standardization = run.apparatusId ? await standardizationInForce(db, run.apparatusId, run.runDate) : null;
+  const std = run.apparatusId ? await standardizationInForce(db, run.apparatusId, run.runDate) : null;
+  const standardization = std ? { ...std, applyHeatLoss: opts.useFittedHeatLoss === true } : null;
   return storageToDocument({
     run, rows, register, gasCode: gas?.code ?? null, apparatus: app ?? null, lab: labName, operator: author?.name ?? '', standardization,
   });

@@ -241,7 +241,7 @@ export class RunsService {
   /** The run as a run document (the export that POST /api/balance and the CLI read back). */
   async document(person: SessionPerson, id: number) {
     const run = await loadVisibleRun(this.db, person, id);
-    const doc = await loadRunDocument(this.db, run, this.config.labName);
+    const doc = await loadRunDocument(this.db, run, this.config.labName, { useFittedHeatLoss: this.config.useFittedHeatLoss });
     await recordAuditAlone(this.db, { actorId: person.id, actorEmail: person.email, action: 'run.export', entityType: 'run', entityId: id, after: { format: 'qwell.run', sha256: sha256Canonical(doc) } });
     return doc;
   }

@@ -4,6 +4,8 @@ import { and, desc, eq, lte } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
 import { apparatusChanges, people, standardizations } from '../../db/schema';
 import type { Flag } from '../engine';
+import { pinnedHeatLossApplies } from '../runs/run-document-mapper';
+import type { RunSetup } from '../runs/run-setup';
 
 export type StandardizationRow = typeof standardizations.$inferSelect;
 export type ChangeRow = typeof apparatusChanges.$inferSelect;
@@ -29,12 +31,20 @@ export const changeUncovered = (change: ChangeRow | null, std: StandardizationRo
 
 export interface RunStandardization {
   /** What the stored result records. */
-  standardization: { id: number; energyEquivalent: { value: number; u: number }; effectiveFrom: string; signedBy: string; signedAt: string } | null;
+  standardization: {
+    id: number; energyEquivalent: { value: number; u: number }; effectiveFrom: string; signedBy: string; signedAt: string;
+    /** The standardization's mean fitted h, W/K, and whether this run's balance used it (QWELL_USE_FITTED_HEAT_LOSS). */
+    heatLossCoefficient: { value: number; u: number } | null;
+    heatLossApplied: boolean;
+  } | null;
   flag: Flag | null;
 }
 
-/** The standardization a run on this apparatus and day uses, and the flag when a change left it out of date. */
-export async function runStandardization(db: DbOrTx, apparatusId: number | null, runDate: string): Promise<RunStandardization> {
+/**
+ * The standardization a run on this apparatus and day uses, and the flag when a change left it out of date.
+ * `heatLossApplied` says whether the run's document took the standardization's fitted h (see pinnedHeatLossApplies).
+ */
+export async function runStandardization(db: DbOrTx, apparatusId: number | null, runDate: string, opts: { useFittedHeatLoss?: boolean; setup?: RunSetup } = {}): Promise<RunStandardization> {
   if (apparatusId === null) return { standardization: null, flag: null };
   const std = await standardizationInForce(db, apparatusId, runDate);
   const change = await latestChange(db, apparatusId, runDate);
@@ -49,6 +59,8 @@ export async function runStandardization(db: DbOrTx, apparatusId: number | null,
   return {
     standardization: std ? {
       id: std.id, energyEquivalent: { value: std.energyEquivalent, u: std.energyEquivalentU }, effectiveFrom: std.effectiveFrom, signedBy, signedAt: std.signedAt.toISOString(),
+      heatLossCoefficient: std.heatLossCoefficient === null ? null : { value: std.heatLossCoefficient, u: std.heatLossCoefficientU ?? 0 },
+      heatLossApplied: pinnedHeatLossApplies(opts.setup ?? {}, { ...std, applyHeatLoss: opts.useFittedHeatLoss === true }),
     } : null,
     flag,
   };

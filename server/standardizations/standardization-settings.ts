@@ -18,3 +18,15 @@ export function acceptanceRuleFromEnv(env: NodeJS.ProcessEnv = process.env): Acc
     maxRsd: num('QWELL_STANDARDIZATION_MAX_RSD', 0.5, false) / 100,
   };
 }
+
+/**
+ * QWELL_USE_FITTED_HEAT_LOSS: "1" (or "on", "true") makes runs pinned to a standardization use its mean fitted
+ * heat-loss coefficient h and u(h) instead of the h typed in the register; "0", "off", "false" or unset: off
+ * (the default, so that an h the lab measured another way is not replaced without a decision).
+ */
+export function useFittedHeatLossFromEnv(env: NodeJS.ProcessEnv = process.env): boolean {
+  const raw = (env['QWELL_USE_FITTED_HEAT_LOSS'] ?? '').trim().toLowerCase();
+  if (['', '0', 'off', 'false'].includes(raw)) return false;
+  if (['1', 'on', 'true'].includes(raw)) return true;
+  throw new Error(`QWELL_USE_FITTED_HEAT_LOSS must be 1 or 0 (on or off), got "${env['QWELL_USE_FITTED_HEAT_LOSS']}"`);
+}
