@@ -3,14 +3,18 @@ import { eq, sql } from 'drizzle-orm';
 import type { Express } from 'express';
 import fc from 'fast-check';
 import type { Database } from '../db/client';
-import { apparatus, instruments, people, projectMembers, projects, runs } from '../db/schema';
+import { apparatus, balanceResults, instruments, people, projectMembers, projects, runs } from '../db/schema';
 import { demoEmail } from '../db/seed/demo-lab';
 import { approvalMeanings } from '../server/runs/review-dto';
+import { standardizationMeanings } from '../server/standardizations/standardization-dto';
 import { ApiClient, DEMO_PASSWORD } from './api-harness';
 import { loadFixture, runBodies } from './fixture-runs';
 
-/** Who sends a route's payloads: throwaway people made here for the run routes, the demo quality officer and administrator for the registers. */
-type Actor = 'fuzzTechnician' | 'fuzzInvestigator' | 'quality' | 'admin';
+/**
+ * Who sends a route's payloads: throwaway people made here for the run routes and for signing standardizations
+ * (wrong passwords in the payloads must not lock a demo account), the demo quality officer and administrator for the registers.
+ */
+type Actor = 'fuzzTechnician' | 'fuzzInvestigator' | 'fuzzQuality' | 'quality' | 'admin';
 
 /** Stands for the run's version at the moment of sending, so near-valid payloads get past the version check. */
 const CURRENT_VERSION = '<current version>';
@@ -42,6 +46,8 @@ export const fuzzTargets: FuzzTarget[] = [
   { method: 'POST', path: '/api/instruments/:instrument/calibrations', actor: 'quality', valid: () => ({ calibratedOn: '2026-01-10', dueOn: '2027-01-10', certificate: 'FZ-CERT-1', expandedUncertainty: 0.2, coverageFactor: 2 }) },
   { method: 'POST', path: '/api/apparatus', actor: 'quality', valid: (ids) => ({ tag: `FZ-NEW-${ids[':project']}`, name: 'Fuzz piston cell', kind: 'piston-cell', bore: 0.05, ratedPressure: 1e6 }) },
   { method: 'PUT', path: '/api/apparatus/:apparatus', actor: 'quality', valid: (ids) => ({ tag: `FZ-CELL-${ids[':apparatus']}`, name: 'Fuzz target apparatus', kind: 'vessel', fixedVolume: 0.001 }) },
+  { method: 'POST', path: '/api/apparatus/:apparatus/standardizations', actor: 'fuzzQuality', valid: (ids) => ({ runIds: STANDARDIZATION_RUN_KEYS.map((k) => ids[k]), password: FUZZ_PASSWORD, meaning: standardizationMeanings[0], reason: 'fuzz standardization' }) },
+  { method: 'POST', path: '/api/apparatus/:apparatus/changes', actor: 'quality', valid: () => ({ description: 'Stirrer motor replaced', changedOn: '2026-05-02' }) },
   { method: 'POST', path: '/api/people', actor: 'admin', valid: (ids) => ({ email: `new-fuzz-${ids[':project']}@fuzz.test`, name: 'New fuzz person', role: 'assistant', password: 'a long enough password' }) },
   { method: 'PATCH', path: '/api/people/:person', actor: 'admin', valid: () => ({ name: 'Fuzz target renamed', role: 'assistant' }) },
   { method: 'POST', path: '/api/projects', actor: 'admin', valid: (ids) => ({ code: `FZN${ids[':project']}`, name: 'New fuzz project' }) },
@@ -49,7 +55,10 @@ export const fuzzTargets: FuzzTarget[] = [
 ];
 
 // Tables whose rows a refused request must leave alone (the audit trail and mail outbox may record refusals).
-const counted = ['runs', 'readings', 'people', 'projects', 'project_members', 'instruments', 'calibrations', 'apparatus', 'balance_results', 'signatures', 'uploads', 'imports'];
+const counted = ['runs', 'readings', 'people', 'projects', 'project_members', 'instruments', 'calibrations', 'apparatus', 'balance_results', 'signatures', 'uploads', 'imports', 'standardizations', 'apparatus_changes'];
+
+/** Six standardization runs over three days on the fuzz apparatus (ASTM D240 §8.1), so a valid signing payload is accepted. */
+const STANDARDIZATION_RUN_KEYS = [':std1', ':std2', ':std3', ':std4', ':std5', ':std6'];
 
 export async function rowCounts(db: Database): Promise<Record<string, number>> {
   const out: Record<string, number> = {};
@@ -135,6 +144,7 @@ export async function fuzzParams(db: Database): Promise<FuzzIds> {
     (await db.insert(people).values({ email: `${name}-${tag.toLowerCase()}@fuzz.test`, name: `Fuzz ${name}`, role, passwordHash }).returning())[0].id;
   const technician = await person('technician', 'technician');
   const investigator = await person('investigator', 'investigator');
+  const quality = (await db.insert(people).values({ email: `quality-${tag.toLowerCase()}@fuzz.test`, name: 'Fuzz quality', role: 'quality', passwordHash }).returning())[0].id;
   const target = await person('target', 'technician');
   const [project] = await db.insert(projects).values({ code: `FZ${tag}`, name: 'Fuzz target project' }).returning();
   await db.insert(projectMembers).values([{ projectId: project.id, personId: technician }, { projectId: project.id, personId: investigator }]);
@@ -145,7 +155,23 @@ export async function fuzzParams(db: Database): Promise<FuzzIds> {
     }).returning())[0].id;
   const [app] = await db.insert(apparatus).values({ tag: `FZ-${tag}`, name: 'Fuzz target apparatus', kind: 'vessel' }).returning();
   const [inst] = await db.select({ id: instruments.id }).from(instruments).limit(1);
+  // Invented ε values within 0.1 % of each other, two runs a day: in control and within the default RSD limit.
+  const standardizationRuns: FuzzIds = {};
+  for (const [i, key] of STANDARDIZATION_RUN_KEYS.entries()) {
+    const [std] = await db.insert(runs).values({
+      code: `FZ-${tag}-S${i + 1}`, projectId: project.id, authorId: technician, title: `Fuzz standardization ${i + 1}`, process: 'calorimetric',
+      runDate: `2026-04-0${1 + Math.floor(i / 2)}`, state: 'submitted', apparatusId: app.id, setup: { gas: { model: 'calorimeter' }, purpose: 'standardization', heatSource: { kind: 'electrical' } },
+    }).returning();
+    const ee = { value: 4850 + [0.5, -1.2, 2.1, -0.4, 1.0, -1.8][i], u: 3 };
+    await db.insert(balanceResults).values({
+      runId: std.id, runVersion: std.version, engineVersion: 'fuzz', inputHash: `fuzz-${tag}-${i}`, verdict: 'closes', en: 0.1, residual: 0, expandedUncertainty: 1,
+      result: { energyEquivalent: ee, heatLeakFit: { h: { value: 0.08, u: 0.002 } } },
+    });
+    standardizationRuns[key] = std.id;
+  }
   return {
+    ...standardizationRuns,
+    ':quality': quality,
     ':draft': await run('draft'), ':submitted': await run('submitted'), ':approved': await run('approved'),
     ':instrument': inst.id, ':apparatus': app.id, ':person': target, ':project': project.id,
     ':technician': technician, ':investigator': investigator,
@@ -164,6 +190,7 @@ export async function fuzzClients(app: Express, db: Database, ids: FuzzIds): Pro
   return {
     fuzzTechnician: await signIn(await emailOf(ids[':technician']), FUZZ_PASSWORD),
     fuzzInvestigator: await signIn(await emailOf(ids[':investigator']), FUZZ_PASSWORD),
+    fuzzQuality: await signIn(await emailOf(ids[':quality']), FUZZ_PASSWORD),
     quality: await signIn(demoEmail('quality'), DEMO_PASSWORD),
     admin: await signIn(demoEmail('admin'), DEMO_PASSWORD),
   };
