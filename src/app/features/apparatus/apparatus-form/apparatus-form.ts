@@ -1,14 +1,14 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { FormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 
-import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
-import { showServerFieldErrors } from '../../../shared/forms/server-field-errors';
+import { DialogSave } from '../../../shared/forms/dialog-save';
+import { ProblemBanner } from '../../../shared/forms/problem-banner';
 import { ApparatusApi } from '../apparatus-api';
 import {
   PRESSURE_UNITS,
@@ -39,6 +39,7 @@ function orNull<T, R>(value: T | null, convert: (value: T) => R): R | null {
     MatIconModule,
     MatInputModule,
     MatSelectModule,
+    ProblemBanner,
     ReactiveFormsModule,
   ],
   templateUrl: './apparatus-form.html',
@@ -47,7 +48,6 @@ function orNull<T, R>(value: T | null, convert: (value: T) => R): R | null {
 })
 export class ApparatusForm {
   private readonly api = inject(ApparatusApi);
-  private readonly dialogRef = inject<MatDialogRef<ApparatusForm, Apparatus>>(MatDialogRef);
   /** null to add a new piece of apparatus. */
   protected readonly editing = inject<Apparatus | null>(MAT_DIALOG_DATA, { optional: true }) ?? null;
 
@@ -55,30 +55,14 @@ export class ApparatusForm {
   protected readonly kindSuggestions = KIND_SUGGESTIONS;
   protected readonly form = this.buildForm(this.editing);
   private pressureUnitShown: PressureUnit = 'kPa';
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ProblemDetails | null>(null);
-  protected readonly otherMessages = signal<string[]>([]);
+  protected readonly save = new DialogSave<Apparatus>(this.form, {
+    conflict: { control: this.form.controls.tag, message: 'This tag is already in the register.' },
+  });
 
   protected saveApparatus(): void {
-    this.form.markAllAsTouched();
-    if (this.form.invalid || this.saving()) {
-      return;
-    }
-    this.saving.set(true);
-    this.problem.set(null);
-    const body = this.body();
-    const request = this.editing ? this.api.update(this.editing.id, body) : this.api.create(body);
-    request.subscribe({
-      next: (saved) => this.dialogRef.close(saved),
-      error: (error: unknown) => {
-        const problem = toProblem(error);
-        this.saving.set(false);
-        this.problem.set(problem);
-        if (problem.status === 409) {
-          this.form.controls.tag.setErrors({ server: 'This tag is already in the register.' });
-        }
-        this.otherMessages.set(showServerFieldErrors(this.form, problem));
-      },
+    this.save.submit(() => {
+      const body = this.body();
+      return this.editing ? this.api.update(this.editing.id, body) : this.api.create(body);
     });
   }
 

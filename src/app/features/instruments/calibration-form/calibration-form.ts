@@ -1,14 +1,13 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { AbstractControl, FormBuilder, ReactiveFormsModule, ValidationErrors, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { ErrorStateMatcher } from '@angular/material/core';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
-import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
-import { showServerFieldErrors } from '../../../shared/forms/server-field-errors';
+import { DialogSave } from '../../../shared/forms/dialog-save';
+import { ProblemBanner } from '../../../shared/forms/problem-banner';
 import { InstrumentsApi } from '../instruments-api';
 import { CalibrationRecord, NewCalibration } from '../instruments.models';
 
@@ -33,8 +32,8 @@ function dueAfterCalibrated(group: AbstractControl): ValidationErrors | null {
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
+    ProblemBanner,
     ReactiveFormsModule,
   ],
   templateUrl: './calibration-form.html',
@@ -43,7 +42,6 @@ function dueAfterCalibrated(group: AbstractControl): ValidationErrors | null {
 })
 export class CalibrationForm {
   private readonly api = inject(InstrumentsApi);
-  private readonly dialogRef = inject<MatDialogRef<CalibrationForm, CalibrationRecord>>(MatDialogRef);
   protected readonly instrument = inject<CalibrationFormData>(MAT_DIALOG_DATA);
 
   protected readonly form = inject(FormBuilder).nonNullable.group(
@@ -64,26 +62,10 @@ export class CalibrationForm {
     isErrorState: (control) =>
       !!control && control.touched && (control.invalid || this.form.hasError('dueNotAfter')),
   };
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ProblemDetails | null>(null);
-  protected readonly otherMessages = signal<string[]>([]);
+  protected readonly save = new DialogSave<CalibrationRecord>(this.form);
 
   protected saveCalibration(): void {
-    this.form.markAllAsTouched();
-    if (this.form.invalid || this.saving()) {
-      return;
-    }
-    this.saving.set(true);
-    this.problem.set(null);
-    this.api.addCalibration(this.instrument.id, this.body()).subscribe({
-      next: (calibration) => this.dialogRef.close(calibration),
-      error: (error: unknown) => {
-        const problem = toProblem(error);
-        this.saving.set(false);
-        this.problem.set(problem);
-        this.otherMessages.set(showServerFieldErrors(this.form, problem));
-      },
-    });
+    this.save.submit(() => this.api.addCalibration(this.instrument.id, this.body()));
   }
 
   private body(): NewCalibration {

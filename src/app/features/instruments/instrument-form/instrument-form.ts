@@ -1,16 +1,15 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { AbstractControl, FormBuilder, ReactiveFormsModule, ValidationErrors, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { ErrorStateMatcher } from '@angular/material/core';
-import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 
-import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
-import { showServerFieldErrors } from '../../../shared/forms/server-field-errors';
+import { DialogSave } from '../../../shared/forms/dialog-save';
+import { ProblemBanner } from '../../../shared/forms/problem-banner';
 import { InstrumentsApi } from '../instruments-api';
 import {
   INSTRUMENT_KINDS,
@@ -38,9 +37,9 @@ function rangeInOrder(group: AbstractControl): ValidationErrors | null {
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     MatSelectModule,
+    ProblemBanner,
     ReactiveFormsModule,
   ],
   templateUrl: './instrument-form.html',
@@ -49,7 +48,6 @@ function rangeInOrder(group: AbstractControl): ValidationErrors | null {
 })
 export class InstrumentForm {
   private readonly api = inject(InstrumentsApi);
-  private readonly dialogRef = inject<MatDialogRef<InstrumentForm, Instrument>>(MatDialogRef);
 
   protected readonly kinds = INSTRUMENT_KINDS;
   private readonly fb = inject(FormBuilder).nonNullable;
@@ -81,9 +79,9 @@ export class InstrumentForm {
     isErrorState: (control) =>
       !!control && control.touched && (control.invalid || this.form.hasError('rangeOrder')),
   };
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ProblemDetails | null>(null);
-  protected readonly otherMessages = signal<string[]>([]);
+  protected readonly save = new DialogSave<Instrument>(this.form, {
+    conflict: { control: this.form.controls.tag, message: 'This tag is already in the register.' },
+  });
 
   /** A new kind keeps its unit only if the unit belongs to it. */
   protected chooseKind(kind: InstrumentKind): void {
@@ -94,24 +92,7 @@ export class InstrumentForm {
   }
 
   protected saveInstrument(): void {
-    this.form.markAllAsTouched();
-    if (this.form.invalid || this.saving()) {
-      return;
-    }
-    this.saving.set(true);
-    this.problem.set(null);
-    this.api.create(this.body()).subscribe({
-      next: (instrument) => this.dialogRef.close(instrument),
-      error: (error: unknown) => {
-        const problem = toProblem(error);
-        this.saving.set(false);
-        this.problem.set(problem);
-        if (problem.status === 409) {
-          this.form.controls.tag.setErrors({ server: 'This tag is already in the register.' });
-        }
-        this.otherMessages.set(showServerFieldErrors(this.form, problem));
-      },
-    });
+    this.save.submit(() => this.api.create(this.body()));
   }
 
   /** Optional fields left empty stay out of the body, so the server keeps its own defaults. */

@@ -1,12 +1,12 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { FormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
-import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { DialogSave } from '../../../shared/forms/dialog-save';
+import { ProblemBanner } from '../../../shared/forms/problem-banner';
 import { PeopleApi } from '../people-api';
 import { MIN_PASSWORD_LENGTH, PersonRecord } from '../people.models';
 
@@ -17,8 +17,8 @@ import { MIN_PASSWORD_LENGTH, PersonRecord } from '../people.models';
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
+    ProblemBanner,
     ReactiveFormsModule,
   ],
   templateUrl: './password-reset.html',
@@ -26,7 +26,6 @@ import { MIN_PASSWORD_LENGTH, PersonRecord } from '../people.models';
 })
 export class PasswordReset {
   private readonly api = inject(PeopleApi);
-  private readonly dialogRef = inject<MatDialogRef<PasswordReset, PersonRecord>>(MatDialogRef);
   protected readonly person = inject<PersonRecord>(MAT_DIALOG_DATA);
 
   protected readonly minLength = MIN_PASSWORD_LENGTH;
@@ -34,22 +33,9 @@ export class PasswordReset {
     password: ['', [Validators.required, Validators.minLength(MIN_PASSWORD_LENGTH)]],
   });
   protected readonly password = this.form.controls.password;
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ProblemDetails | null>(null);
+  protected readonly save = new DialogSave<PersonRecord>(this.form);
 
   protected resetPassword(): void {
-    this.password.markAsTouched();
-    if (this.password.invalid || this.saving()) {
-      return;
-    }
-    this.saving.set(true);
-    this.problem.set(null);
-    this.api.update(this.person.id, { password: this.password.value }).subscribe({
-      next: (person) => this.dialogRef.close(person),
-      error: (error: unknown) => {
-        this.saving.set(false);
-        this.problem.set(toProblem(error));
-      },
-    });
+    this.save.submit(() => this.api.update(this.person.id, { password: this.password.value }));
   }
 }

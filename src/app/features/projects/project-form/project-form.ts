@@ -1,13 +1,12 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { FormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 
-import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
-import { showServerFieldErrors } from '../../../shared/forms/server-field-errors';
+import { DialogSave } from '../../../shared/forms/dialog-save';
+import { ProblemBanner } from '../../../shared/forms/problem-banner';
 import { ProjectsApi } from '../projects-api';
 import { Project } from '../projects.models';
 
@@ -18,8 +17,8 @@ import { Project } from '../projects.models';
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
+    ProblemBanner,
     ReactiveFormsModule,
   ],
   templateUrl: './project-form.html',
@@ -28,38 +27,20 @@ import { Project } from '../projects.models';
 })
 export class ProjectForm {
   private readonly api = inject(ProjectsApi);
-  private readonly dialogRef = inject<MatDialogRef<ProjectForm, Omit<Project, 'members'>>>(MatDialogRef);
 
   protected readonly form = inject(FormBuilder).nonNullable.group({
     code: ['', [Validators.required, Validators.pattern(/^[A-Z0-9]{1,12}$/)]],
     name: ['', [Validators.required, Validators.minLength(3), Validators.maxLength(200)]],
     description: ['', Validators.maxLength(2000)],
   });
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ProblemDetails | null>(null);
-  protected readonly otherMessages = signal<string[]>([]);
+  protected readonly save = new DialogSave<Omit<Project, 'members'>>(this.form, {
+    conflict: { control: this.form.controls.code, message: 'A project already has this code.' },
+  });
 
   protected saveProject(): void {
-    this.form.markAllAsTouched();
-    if (this.form.invalid || this.saving()) {
-      return;
-    }
-    this.saving.set(true);
-    this.problem.set(null);
-    const value = this.form.getRawValue();
-    this.api
-      .create({ code: value.code.trim(), name: value.name.trim(), description: value.description.trim() })
-      .subscribe({
-        next: (project) => this.dialogRef.close(project),
-        error: (error: unknown) => {
-          const problem = toProblem(error);
-          this.saving.set(false);
-          this.problem.set(problem);
-          if (problem.status === 409) {
-            this.form.controls.code.setErrors({ server: 'A project already has this code.' });
-          }
-          this.otherMessages.set(showServerFieldErrors(this.form, problem));
-        },
-      });
+    this.save.submit(() => {
+      const value = this.form.getRawValue();
+      return this.api.create({ code: value.code.trim(), name: value.name.trim(), description: value.description.trim() });
+    });
   }
 }
