@@ -4,8 +4,10 @@ import { join, resolve } from 'node:path';
 import type { BalanceSettings } from './engine';
 import { balanceSettingsFromEnv } from './balance/balance-settings';
 import { useFittedHeatLossFromEnv } from './standardizations/standardization-settings';
-import { DEMO_INSTITUTION } from '../db/seed/demo-lab';
 import { DEFAULT_LOCKOUT } from './auth/password-attempts';
+
+/** The lab named in run documents when QWELL_LAB_NAME is unset: the invented demo lab's institution. */
+export const DEFAULT_LAB_NAME = 'Harrowgate Institute of Applied Thermophysics';
 
 /** Everything the server reads from its environment, resolved once. */
 export interface Config {
@@ -170,7 +172,7 @@ export function loadConfig(overrides: Partial<Config> = {}): Config {
     useFittedHeatLoss: useFittedHeatLossFromEnv(),
     worker: process.env['QWELL_WORKER'] !== '0',
     uploadRetentionDays: int('QWELL_UPLOAD_RETENTION_DAYS', 30),
-    labName: process.env['QWELL_LAB_NAME'] ?? DEMO_INSTITUTION,
+    labName: process.env['QWELL_LAB_NAME'] ?? DEFAULT_LAB_NAME,
     publicUrl: process.env['QWELL_PUBLIC_URL'] || `http://${process.env['HOST'] ?? '127.0.0.1'}:${int('PORT', 3000)}`,
     trustProxy: trustProxy(),
     auditSigningKey: auditSigningKey(),

@@ -1,8 +1,10 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { dirname, join, relative, resolve, sep } from 'node:path';
 
-// The house reads one way: production code (server/, db/) never reaches into the test support
+// The house reads one way. Production code (server/, db/) never reaches into the test support
 // folder (testing/): harnesses seed people with known passwords, start catchers and fuzz writes.
+// The demo seed and the migration runner are entry points that use the server's modules, so the
+// server never imports db/seed; the schema and the client are the bottom and import no server code.
 const root = resolve(__dirname, '..');
 
 function sourceFiles(dir: string): string[] {
@@ -43,5 +45,21 @@ describe('import direction', () => {
 
   it('no production file under server/ or db/ imports the test support folder', () => {
     expect(offenders(['server', 'db'], under('testing'))).toEqual([]);
+  });
+
+  it('the server never imports the demo seed (the seed depends on the server, not the other way)', () => {
+    expect(offenders(['server'], under(join('db', 'seed')))).toEqual([]);
+  });
+
+  it('the schema and the database client import nothing from the server', () => {
+    const bottom = (file: string) => !file.startsWith(join('db', 'seed') + sep) && file !== join('db', 'migrate.ts');
+    expect(offenders(['db'], (target, file) => bottom(file) && under('server')(target))).toEqual([]);
+  });
+
+  it('the runs service is the runs router\'s alone: other modules take run helpers from their own files', () => {
+    // visibleProjectIds → run-access, nextCode → run-code, runHistory → run-history, insertReadings → readings-bulk.
+    const service = join('server', 'runs', 'runs-service');
+    const router = join('server', 'runs', 'runs-router.ts');
+    expect(offenders(['server', 'db', 'tools'], (target, file) => target === service && file !== router)).toEqual([]);
   });
 });

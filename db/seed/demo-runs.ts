@@ -6,7 +6,7 @@ import { evaluateBalance, validateRunDocument } from '../../server/engine';
 import { documentToStorage } from '../../server/runs/run-document-mapper';
 import { approvalMeanings, rejectionMeanings, returnMeanings } from '../../server/runs/review-dto';
 import { signedHash } from '../../server/runs/signature-hash';
-import { insertReadings } from '../../server/runs/runs-service';
+import { insertReadings } from '../../server/runs/readings-bulk';
 import type { Tx } from '../client';
 import { apparatus, balanceResults, gases, people, projects, runs, signatures, type RunState } from '../schema';
 

@@ -8,7 +8,6 @@ import { HttpProblem } from '../core/problem';
 import type { SessionPerson } from '../core/session';
 import { dummyPasswordHash, lockedProblem, reserveAttempt, settleFailure, settleSuccess } from './password-attempts';
 
-export { BCRYPT_COST } from './password-attempts';
 
 /**
  * The one answer to an unknown address, an inactive account and a wrong password alike, so the answer

@@ -7,7 +7,7 @@ import { validateRunDocument, type BalanceResult } from '../engine';
 import { buildSeries } from '../engine/series';
 import { loadVisibleRun, type RunRow } from '../runs/run-access';
 import { loadRunDocument } from '../runs/run-loader';
-import { RunsService } from '../runs/runs-service';
+import { runHistory } from '../runs/run-history';
 
 export interface RunReportData {
   run: RunRow;
@@ -24,7 +24,7 @@ export interface RunReportData {
   /** Why there is no diagram, when there is none. */
   pvNote: string | null;
   signatures: { signerName: string; action: string; meaning: string; reason: string | null; signedAt: Date; signedHash: string }[];
-  history: Awaited<ReturnType<RunsService['history']>>['items'];
+  history: Awaited<ReturnType<typeof runHistory>>['items'];
 }
 
 /** Everything the run report prints, read for a person who may see the run (404/403 otherwise). */
@@ -38,7 +38,7 @@ export async function loadRunReport(db: Database, config: Config, person: Sessio
     db.select().from(balanceResults).where(and(eq(balanceResults.runId, id), eq(balanceResults.current, true))),
     db.select({ signerName: people.name, action: signatures.action, meaning: signatures.meaning, reason: signatures.reason, signedAt: signatures.signedAt, signedHash: signatures.signedHash })
       .from(signatures).innerJoin(people, eq(people.id, signatures.signerId)).where(eq(signatures.runId, id)).orderBy(asc(signatures.signedAt)),
-    new RunsService(db, config, null).history(person, id),
+    runHistory(db, person, id),
   ]);
 
   let pv: RunReportData['pv'] = null;

@@ -3,7 +3,7 @@ import type { Database } from '../../db/client';
 import { people, runs, type RunState } from '../../db/schema';
 import type { SessionPerson } from '../core/session';
 import { InstrumentsService } from '../instruments/instruments-service';
-import { visibleProjectIds } from '../runs/runs-service';
+import { visibleProjectIds } from '../runs/run-access';
 
 /** One entry of a person's home queue: a count and where the list behind it lives. */
 export interface Queue {

@@ -5,7 +5,7 @@ import type { Database, DbOrTx } from '../../db/client';
 import { columnMaps, imports, people, runs, uploads } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
 import type { SessionPerson } from '../core/session';
-import { visibleProjectIds } from '../runs/runs-service';
+import { visibleProjectIds } from '../runs/run-access';
 import { readCsv, type CsvOptions } from './csv-reader';
 import { detectKind } from './file-kind';
 import { commitImport, loadOwnImport } from './import-commit';

@@ -3,7 +3,7 @@ import { asc, eq, sql } from 'drizzle-orm';
 import type { Database } from '../../db/client';
 import { people } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
-import { BCRYPT_COST } from '../auth/auth-service';
+import { BCRYPT_COST } from '../auth/password-attempts';
 import { badRequest, conflict, notFound } from '../core/problem';
 import type { SessionPerson } from '../core/session';
 import type { CreatePersonDto, UpdatePersonDto } from './people-dto';

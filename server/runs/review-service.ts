@@ -13,7 +13,7 @@ import { approvalMeanings, rejectionMeanings, returnMeanings, type ReviewAction,
 import { nextState } from './run-state-machine';
 import { signedHash } from './signature-hash';
 import { checkSignerPassword } from './signer-password';
-import { insertReadings } from './runs-service';
+import { insertReadings } from './readings-bulk';
 
 const meaningsFor: Record<ReviewAction, readonly string[]> = { approve: approvalMeanings, return: returnMeanings, reject: rejectionMeanings };
 /** Shortest written justification for approving a run whose check breaks or is indeterminate. */

@@ -7,6 +7,13 @@ import { refusal, type RunAction } from './run-state-machine';
 
 export type RunRow = typeof runs.$inferSelect;
 
+/** Projects whose runs a person may see; null means every project (quality officers). */
+export async function visibleProjectIds(db: DbOrTx, person: SessionPerson): Promise<number[] | null> {
+  if (person.role === 'quality') return null;
+  const rows = await db.select({ id: projectMembers.projectId }).from(projectMembers).where(eq(projectMembers.personId, person.id));
+  return rows.map((r) => r.id);
+}
+
 async function isMember(db: DbOrTx, projectId: number, personId: number): Promise<boolean> {
   const [row] = await db.select({ p: projectMembers.projectId }).from(projectMembers)
     .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.personId, personId)));

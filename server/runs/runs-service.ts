@@ -1,6 +1,6 @@
 import { and, asc, count, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Database, DbOrTx } from '../../db/client';
-import { apparatus, auditEvents, balanceResults, gases, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
+import { apparatus, balanceResults, gases, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
 import { recordAudit, recordAuditAlone } from '../audit/audit-service';
 import type { Config } from '../config';
 import { badRequest, forbidden } from '../core/problem';
@@ -9,7 +9,9 @@ import { sha256Canonical, validateRunDocument, type RunDocument } from '../engin
 import { buildSeries } from '../engine/series';
 import type { JobQueue } from '../jobs/job-queue';
 import { projectAddresses, queueMail } from '../mail/outbox';
-import { loadRunFor, loadVisibleRun, type RunRow } from './run-access';
+import { loadRunFor, loadVisibleRun, visibleProjectIds, type RunRow } from './run-access';
+import { nextCode } from './run-code';
+import { runHistory } from './run-history';
 import { insertReadings, sha256ReadingRows } from './readings-bulk';
 import { parseReadingsInput, readingsToRows, type ReadingRow } from './run-document-mapper';
 import { loadReadings, loadRunDocument } from './run-loader';
@@ -17,23 +19,6 @@ import type { RunSetup } from './run-setup';
 import { submitProblems } from './submit-checklist';
 import { runLink } from '../mail/run-link';
 import type { CreateRunDto, ReplaceReadingsDto, RunListQuery, UpdateRunDto } from './runs-dto';
-
-/** Projects whose runs a person may see; null means every project (quality officers). */
-export async function visibleProjectIds(db: DbOrTx, person: SessionPerson): Promise<number[] | null> {
-  if (person.role === 'quality') return null;
-  const rows = await db.select({ id: projectMembers.projectId }).from(projectMembers).where(eq(projectMembers.personId, person.id));
-  return rows.map((r) => r.id);
-}
-
-export { insertReadings } from './readings-bulk';
-
-/** Next people-facing code, R-<year>-<nnnn>, unique across revisions (call it inside the creating transaction). */
-export async function nextCode(tx: DbOrTx, runDate: string): Promise<string> {
-  const year = runDate.slice(0, 4);
-  await tx.execute(sql`SELECT pg_advisory_xact_lock(7004313)`);
-  const [{ n }] = await tx.select({ n: sql<number>`count(DISTINCT ${runs.code})::int` }).from(runs).where(sql`${runs.code} LIKE ${`R-${year}-%`}`);
-  return `R-${year}-${String(n + 1).padStart(4, '0')}`;
-}
 
 /** Fields of a run that the audit trail records before and after a change. */
 const auditView = (r: RunRow) => ({
@@ -226,16 +211,8 @@ export class RunsService {
   }
 
   /** The audit events of a run and of its other revisions, oldest first: its history as people see it. */
-  async history(person: SessionPerson, id: number) {
-    const run = await loadVisibleRun(this.db, person, id);
-    const revisionIds = (await this.db.select({ id: runs.id }).from(runs).where(eq(runs.code, run.code))).map((r) => String(r.id));
-    const items = await this.db
-      .select({ id: auditEvents.id, occurredAt: auditEvents.occurredAt, actorEmail: auditEvents.actorEmail, actorName: people.name, action: auditEvents.action, entityId: auditEvents.entityId, before: auditEvents.before, after: auditEvents.after, reason: auditEvents.reason })
-      .from(auditEvents)
-      .leftJoin(people, eq(people.id, auditEvents.actorId))
-      .where(and(eq(auditEvents.entityType, 'run'), inArray(auditEvents.entityId, revisionIds)))
-      .orderBy(asc(auditEvents.id));
-    return { items };
+  history(person: SessionPerson, id: number) {
+    return runHistory(this.db, person, id);
   }
 
   /** The run as a run document (the export that POST /api/balance and the CLI read back). */
@@ -255,7 +232,7 @@ export class RunsService {
 }
 
 /** The reading channels (time aside) that name no instrument: they would enter the budget with no uncertainty. */
-export function channelsWithoutInstrument(doc: RunDocument): string[] {
+function channelsWithoutInstrument(doc: RunDocument): string[] {
   return Object.entries(doc.readings)
     .filter(([name, ch]) => name !== 'time' && ch && !(ch as { instrument?: string }).instrument)
     .map(([name]) => name);
