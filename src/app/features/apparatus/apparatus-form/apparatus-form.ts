@@ -8,7 +8,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 
 import { DialogSave } from '../../../shared/forms/dialog-save';
-import { ProblemBanner } from '../../../shared/forms/problem-banner';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { ApparatusApi } from '../apparatus-api';
 import {
   PRESSURE_UNITS,

@@ -1,22 +1,22 @@
 import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { DatePipe, JsonPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { FormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
-import { ActivatedRoute, Router } from '@angular/router';
-import { catchError, distinctUntilChanged, map, of, switchMap, tap } from 'rxjs';
+import { catchError, of } from 'rxjs';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
-import { addressParams, pageRangeMessage } from '../../../shared/paging/paged-query';
+import { PagedList } from '../../../shared/paging/paged-list';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { AuditApi } from '../audit-api';
 import {
   AuditEvent,
@@ -50,6 +50,7 @@ const EXPORT_FORMATS: readonly { format: ExportFormat; label: string; icon: stri
     MatProgressBarModule,
     MatSelectModule,
     MatTableModule,
+    ProblemBanner,
     ReactiveFormsModule,
   ],
   templateUrl: './audit-trail.html',
@@ -59,8 +60,6 @@ const EXPORT_FORMATS: readonly { format: ExportFormat; label: string; icon: stri
 })
 export class AuditTrail {
   private readonly api = inject(AuditApi);
-  private readonly route = inject(ActivatedRoute);
-  private readonly router = inject(Router);
   private readonly announcer = inject(LiveAnnouncer);
 
   /** People who appear in the trail, for the person filter. */
@@ -72,12 +71,6 @@ export class AuditTrail {
   protected readonly recordTypes = RECORD_TYPES;
   protected readonly exportFormats = EXPORT_FORMATS;
 
-  protected readonly query = toSignal(this.route.queryParamMap.pipe(map(auditQueryFrom)), {
-    requireSync: true,
-  });
-  protected readonly result = signal<AuditPage | null>(null);
-  protected readonly loading = signal(true);
-  protected readonly problem = signal<ProblemDetails | null>(null);
   protected readonly expanded = signal<number | null>(null);
   protected readonly checking = signal(false);
   protected readonly chain = signal<ChainCheck | null>(null);
@@ -92,39 +85,27 @@ export class AuditTrail {
     from: [''],
     to: [''],
   });
+  protected readonly list = new PagedList<AuditQuery, AuditPage>({
+    queryFrom: auditQueryFrom,
+    defaults: DEFAULT_AUDIT_QUERY,
+    load: (query) => this.api.list(query),
+    plural: 'Events',
+    queryChanged: (query) => {
+      this.expanded.set(null);
+      this.showFilters(query);
+    },
+  });
   protected readonly exportLinks = computed(() =>
-    EXPORT_FORMATS.map((entry) => ({ ...entry, href: this.api.exportUrl(entry.format, this.query()) })),
+    EXPORT_FORMATS.map((entry) => ({ ...entry, href: this.api.exportUrl(entry.format, this.list.query()) })),
   );
   protected readonly activeFilterCount = computed(() => {
-    const { page: _page, pageSize: _size, ...filters } = this.query();
+    const { page: _page, pageSize: _size, ...filters } = this.list.query();
     return Object.values(filters).filter((value) => value !== null && value !== false).length;
   });
 
-  constructor() {
-    this.route.queryParamMap
-      .pipe(
-        map(auditQueryFrom),
-        distinctUntilChanged((a, b) => JSON.stringify(a) === JSON.stringify(b)),
-        tap((query) => {
-          this.loading.set(true);
-          this.expanded.set(null);
-          this.showFilters(query);
-        }),
-        // Errors are caught per request so that the next filter or page still loads.
-        switchMap((query) =>
-          this.api.list(query).pipe(
-            map((page): AuditPage | ProblemDetails => page),
-            catchError((error: unknown) => of(toProblem(error))),
-          ),
-        ),
-        takeUntilDestroyed(),
-      )
-      .subscribe((outcome) => ('items' in outcome ? this.show(outcome) : this.fail(outcome)));
-  }
-
   protected applyFilters(): void {
     const value = this.filterForm.getRawValue();
-    this.updateQuery({
+    this.list.update({
       run: runCode(value.run ?? null),
       hideSignIns: value.hideSignIns ?? false,
       person: value.person || null,
@@ -137,15 +118,11 @@ export class AuditTrail {
   }
 
   protected clearFilters(): void {
-    this.updateQuery({ ...DEFAULT_AUDIT_QUERY, pageSize: this.query().pageSize });
+    this.list.update({ ...DEFAULT_AUDIT_QUERY, pageSize: this.list.query().pageSize });
   }
 
   protected filterByPerson(event: AuditEvent): void {
-    this.updateQuery({ person: event.actorId, page: 1 });
-  }
-
-  protected turnPage(event: PageEvent): void {
-    this.updateQuery({ page: event.pageIndex + 1, pageSize: event.pageSize });
+    this.list.update({ person: event.actorId, page: 1 });
   }
 
   protected toggleEvent(event: AuditEvent): void {
@@ -197,22 +174,5 @@ export class AuditTrail {
       from: query.from ?? '',
       to: query.to ?? '',
     });
-  }
-
-  private updateQuery(change: Partial<AuditQuery>): void {
-    const queryParams = addressParams<AuditQuery>({ ...this.query(), ...change }, DEFAULT_AUDIT_QUERY);
-    void this.router.navigate([], { relativeTo: this.route, queryParams, queryParamsHandling: 'merge' });
-  }
-
-  private show(page: AuditPage): void {
-    this.result.set(page);
-    this.problem.set(null);
-    this.loading.set(false);
-    void this.announcer.announce(pageRangeMessage(page, 'Events'), 'polite');
-  }
-
-  private fail(problem: ProblemDetails): void {
-    this.problem.set(problem);
-    this.loading.set(false);
   }
 }

@@ -7,7 +7,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 
 import { DialogSave } from '../../../shared/forms/dialog-save';
-import { ProblemBanner } from '../../../shared/forms/problem-banner';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { InstrumentsApi } from '../instruments-api';
 import { CalibrationRecord, NewCalibration } from '../instruments.models';
 

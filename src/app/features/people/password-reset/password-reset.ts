@@ -6,7 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 
 import { DialogSave } from '../../../shared/forms/dialog-save';
-import { ProblemBanner } from '../../../shared/forms/problem-banner';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { PeopleApi } from '../people-api';
 import { MIN_PASSWORD_LENGTH, PersonRecord } from '../people.models';
 

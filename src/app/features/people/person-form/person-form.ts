@@ -9,7 +9,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { ROLES, Role } from '../../../core/auth/auth.models';
 import { RoleLabelPipe } from '../../../shared/role-label-pipe';
 import { DialogSave } from '../../../shared/forms/dialog-save';
-import { ProblemBanner } from '../../../shared/forms/problem-banner';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { PeopleApi } from '../people-api';
 import { MIN_PASSWORD_LENGTH, PersonRecord } from '../people.models';
 

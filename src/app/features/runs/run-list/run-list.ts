@@ -1,26 +1,26 @@
 import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatIconModule } from '@angular/material/icon';
-import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
+import { MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
-import { ActivatedRoute, ParamMap, Router, RouterLink } from '@angular/router';
-import { Subject, catchError, distinctUntilChanged, map, merge, of, switchMap, tap } from 'rxjs';
+import { ParamMap, RouterLink } from '@angular/router';
+import { Subject, catchError, map, of } from 'rxjs';
 
 import { Auth } from '../../../core/auth/auth';
-import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { ProjectsApi } from '../../projects/projects-api';
 import { BackoffPoll } from '../../../shared/polling/backoff-poll';
 import { VERDICT_LOOKS, Verdict, VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
-import { addressParams, pageRangeMessage } from '../../../shared/paging/paged-query';
+import { PagedList } from '../../../shared/paging/paged-list';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { RunsApi } from '../runs-api';
 import { RUN_STATE_LABELS, RUN_STATES, RunPage, RunQuery, RunSort, RunState } from '../runs.models';
 import { RUN_AUTHORS } from '../run-detail.models';
@@ -78,6 +78,7 @@ export function runQueryFrom(params: ParamMap): RunQuery {
     MatSelectModule,
     MatSortModule,
     MatTableModule,
+    ProblemBanner,
     RouterLink,
     VerdictDisplay,
   ],
@@ -88,8 +89,6 @@ export function runQueryFrom(params: ParamMap): RunQuery {
 })
 export class RunList {
   private readonly api = inject(RunsApi);
-  private readonly route = inject(ActivatedRoute);
-  private readonly router = inject(Router);
   private readonly announcer = inject(LiveAnnouncer);
   private readonly auth = inject(Auth);
   private readonly projectsApi = inject(ProjectsApi);
@@ -111,41 +110,18 @@ export class RunList {
   protected readonly stateLabels = RUN_STATE_LABELS;
   protected readonly pageSizes = PAGE_SIZES;
 
-  protected readonly query = toSignal(this.route.queryParamMap.pipe(map(runQueryFrom)), {
-    requireSync: true,
-  });
-  protected readonly result = signal<RunPage | null>(null);
-  protected readonly loading = signal(true);
-  protected readonly problem = signal<ProblemDetails | null>(null);
-
   /** Silent re-reads of the same page while a run on it waits for its balance check. */
   private readonly refresh$ = new Subject<void>();
   private readonly poll = new BackoffPoll(() => this.refresh$.next());
-
-  constructor() {
-    const queries = this.route.queryParamMap.pipe(
-      map(runQueryFrom),
-      distinctUntilChanged((a, b) => JSON.stringify(a) === JSON.stringify(b)),
-      tap(() => {
-        this.loading.set(true);
-        this.poll.stop();
-      }),
-      map((query) => ({ query, silent: false })),
-    );
-    merge(queries, this.refresh$.pipe(map(() => ({ query: this.query(), silent: true }))))
-      .pipe(
-        // Errors are caught per request so that the next filter or page still loads.
-        switchMap(({ query, silent }) =>
-          this.api.list(query).pipe(
-            map((page): RunPage | ProblemDetails => page),
-            catchError((error: unknown) => of(toProblem(error))),
-            map((outcome) => ({ outcome, silent })),
-          ),
-        ),
-        takeUntilDestroyed(),
-      )
-      .subscribe(({ outcome, silent }) => ('items' in outcome ? this.show(outcome, silent) : this.fail(outcome)));
-  }
+  protected readonly list = new PagedList<RunQuery, RunPage>({
+    queryFrom: runQueryFrom,
+    defaults: DEFAULT_QUERY,
+    load: (query) => this.api.list(query),
+    plural: 'Runs',
+    queryChanged: () => this.poll.stop(),
+    refresh: this.refresh$,
+    shown: (page, silent, before) => this.followChecks(page, silent, before),
+  });
 
   protected stateLabel(state: RunState): string {
     return RUN_STATE_LABELS[state] ?? state;
@@ -166,12 +142,12 @@ export class RunList {
   protected readonly verdictLooks = VERDICT_LOOKS;
 
   protected filterByState(state: RunState | null): void {
-    this.updateQuery({ state, page: 1 });
+    this.list.update({ state, page: 1 });
   }
 
   /** Any other filter: one change at a time, back to the first page. */
   protected filterBy(change: Partial<Pick<RunQuery, 'verdict' | 'project' | 'author' | 'mine' | 'from' | 'to'>>): void {
-    this.updateQuery({ ...change, page: 1 });
+    this.list.update({ ...change, page: 1 });
   }
 
   /** A date input's value, or null when cleared or not a whole date. */
@@ -182,31 +158,18 @@ export class RunList {
 
   protected sortBy(sort: Sort): void {
     // A third click on a header clears the sort: back to the newest first.
-    this.updateQuery(
+    this.list.update(
       sort.direction === ''
         ? { sort: DEFAULT_QUERY.sort, dir: DEFAULT_QUERY.dir, page: 1 }
         : { sort: sort.active as RunSort, dir: sort.direction, page: 1 },
     );
   }
 
-  protected turnPage(event: PageEvent): void {
-    this.updateQuery({ page: event.pageIndex + 1, pageSize: event.pageSize });
-  }
-
-  private updateQuery(change: Partial<RunQuery>): void {
-    const queryParams = addressParams<RunQuery>({ ...this.query(), ...change }, DEFAULT_QUERY);
-    void this.router.navigate([], { relativeTo: this.route, queryParams, queryParamsHandling: 'merge' });
-  }
-
-  private show(page: RunPage, silent: boolean): void {
-    const before = new Map((this.result()?.items ?? []).map((run) => [run.id, run.verdict]));
-    this.result.set(page);
-    this.problem.set(null);
-    this.loading.set(false);
-    if (!silent) {
-      void this.announcer.announce(pageRangeMessage(page, 'Runs'), 'polite');
-    } else {
-      const checked = page.items.filter((run) => run.verdict && before.has(run.id) && before.get(run.id) === null);
+  /** Announces the verdicts that arrived on a silent re-read, and keeps asking while a run on the page waits for one. */
+  private followChecks(page: RunPage, silent: boolean, before: RunPage | null): void {
+    if (silent) {
+      const waiting = new Set((before?.items ?? []).filter((run) => run.verdict === null).map((run) => run.id));
+      const checked = page.items.filter((run) => run.verdict && waiting.has(run.id));
       if (checked.length) {
         const words = checked.map((run) => `${run.code}: ${VERDICT_LOOKS[run.verdict!].word}`).join('; ');
         void this.announcer.announce(`Balance check finished for ${words}.`, 'polite');
@@ -218,10 +181,5 @@ export class RunList {
     } else {
       this.poll.stop();
     }
-  }
-
-  private fail(problem: ProblemDetails): void {
-    this.problem.set(problem);
-    this.loading.set(false);
   }
 }
