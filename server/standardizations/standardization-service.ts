@@ -7,7 +7,8 @@ import { recordAudit } from '../audit/audit-service';
 import { badRequest, notFound } from '../core/problem';
 import type { SessionPerson } from '../core/session';
 import { sha256Canonical } from '../engine';
-import { summariseSeries, type AcceptanceRule, type SeriesSummary } from '../engine/control-chart';
+import type { AcceptanceRule, ChartLimits, SeriesSummary } from '../engine/control-chart';
+import { segmentByChanges, type SeriesChange } from '../engine/control-chart-segments';
 import { checkSignerPassword } from '../runs/signer-password';
 import { standardizationFigures } from './standardization-figures';
 import type { ApparatusChangeDto, ApproveStandardizationDto } from './standardization-dto';
@@ -25,6 +26,18 @@ export interface SeriesRun {
   accepted: boolean;
   outOfControl: boolean;
   rule: string | null;
+  /** Index of the run's chart segment (a recorded change to the apparatus starts a new one), and whether it is the current one. */
+  segment: number;
+  current: boolean;
+}
+
+export interface SegmentOut {
+  index: number;
+  /** The change that started it (null for the first). */
+  change: SeriesChange | null;
+  n: number;
+  chart: ChartLimits | null;
+  current: boolean;
 }
 
 type RawRun = { id: number; code: string; run_date: string; state: string; ee: { value: number; u: number }; h: { value: number; u: number } | null; input_hash: string };
@@ -40,8 +53,11 @@ export class StandardizationService {
     return row;
   }
 
-  /** Standardization runs of the apparatus (submitted or approved, latest revision) with a computed ε, in date order. */
-  async series(db: DbOrTx, apparatusId: number): Promise<{ runs: SeriesRun[]; summary: SeriesSummary }> {
+  /**
+   * Standardization runs of the apparatus (submitted or approved, latest revision) with a computed ε, in date order,
+   * in chart segments split at recorded changes; `summary` is the current segment's (ASTM D240 §8.1.1).
+   */
+  async series(db: DbOrTx, apparatusId: number): Promise<{ runs: SeriesRun[]; summary: SeriesSummary; segments: SegmentOut[] }> {
     const rows = [...await db.execute<RawRun>(sql`
       SELECT r.id, r.code, r.run_date::text AS run_date, r.state, b.result->'energyEquivalent' AS ee,
              b.result->'heatLeakFit'->'h' AS h, b.input_hash
@@ -51,16 +67,21 @@ export class StandardizationService {
         AND jsonb_typeof(b.result->'energyEquivalent') = 'object'
         AND NOT EXISTS (SELECT 1 FROM runs n WHERE n.previous_revision_id = r.id)
       ORDER BY r.run_date, r.id`)];
-    const summary = summariseSeries(rows.map((r) => ({ date: r.run_date, value: r.ee.value })), this.rule);
-    const runs = rows.map((r, i) => {
-      const b = summary.breaks[i];
+    const changes = await db.select({ date: apparatusChanges.changedOn, description: apparatusChanges.description }).from(apparatusChanges).where(eq(apparatusChanges.apparatusId, apparatusId));
+    const segments = segmentByChanges(rows.map((r) => ({ date: r.run_date, value: r.ee.value })), changes, this.rule);
+    const runs = segments.flatMap((seg, index) => rows.slice(seg.start, seg.end).map((r, j) => {
+      const b = seg.summary.breaks[j];
       return {
         runId: r.id, code: r.code, runDate: r.run_date, state: r.state,
         energyEquivalent: { value: r.ee.value, u: r.ee.u }, heatLoss: r.h ? { value: r.h.value, u: r.h.u } : null, inputHash: r.input_hash,
-        accepted: b === null, outOfControl: b !== null, rule: b ? `test ${b.test}: ${b.rule}` : null,
+        accepted: b === null && seg.current, outOfControl: b !== null, rule: b ? `test ${b.test}: ${b.rule}` : null, segment: index, current: seg.current,
       };
-    });
-    return { runs, summary };
+    }));
+    const current = segments[segments.length - 1];
+    return {
+      runs, summary: current.summary,
+      segments: segments.map((seg, index) => ({ index, change: seg.change, n: seg.end - seg.start, chart: seg.summary.chart, current: seg.current })),
+    };
   }
 
   private async withSigner(rows: StandardizationRow[]) {
@@ -76,7 +97,7 @@ export class StandardizationService {
   /** GET /api/apparatus/:id/standardizations */
   async overview(apparatusId: number) {
     const app = await this.apparatusRow(this.db, apparatusId);
-    const { runs, summary } = await this.series(this.db, apparatusId);
+    const { runs, summary, segments } = await this.series(this.db, apparatusId);
     const history = await this.withSigner(await this.db.select().from(standardizations).where(eq(standardizations.apparatusId, apparatusId)).orderBy(desc(standardizations.signedAt), desc(standardizations.id)));
     const changes = await this.db.select({ id: apparatusChanges.id, description: apparatusChanges.description, changedOn: apparatusChanges.changedOn, recordedAt: apparatusChanges.recordedAt, recordedBy: people.name })
       .from(apparatusChanges).innerJoin(people, eq(people.id, apparatusChanges.recordedBy)).where(eq(apparatusChanges.apparatusId, apparatusId)).orderBy(desc(apparatusChanges.recordedAt));
@@ -91,6 +112,7 @@ export class StandardizationService {
       due: due ? { since: latest!.changedOn, description: latest!.description } : null,
       series: runs.map(({ inputHash: _h, heatLoss: _l, ...r }) => r),
       chart: summary.chart,
+      segments,
       summary: { n: summary.n, days: summary.days, mean: round(summary.mean), sd: round(summary.sd), uMean: round(summary.uMean), rsd: round(summary.rsd), acceptance: summary.acceptance },
       rule: this.rule,
       history,
@@ -113,6 +135,7 @@ export class StandardizationService {
       const problems = wanted.flatMap((id) => {
         const r = byId.get(id);
         if (!r) return [{ field: 'runIds', message: `run ${id} is not a submitted or approved standardization run of this apparatus with an energy equivalent` }];
+        if (!r.current) return [{ field: 'runIds', message: `run ${r.code} was made before the latest recorded change to the apparatus; a new standardization takes runs made after it (ASTM D240 §8.1.1)` }];
         if (!r.accepted) return [{ field: 'runIds', message: `run ${r.code} is out of control (${r.rule}); leave it out or investigate it first` }];
         return [];
       });

@@ -46,6 +46,12 @@ export class ApparatusStandardization {
   protected readonly busy = signal(false);
   protected readonly meaning = STANDARDIZATION_MEANINGS[0];
   protected readonly rsdLimit = computed(() => (this.overview()?.rule.maxRsd ?? 0) * 100);
+  /** The change that restarted the chart, when earlier runs exist before it. */
+  protected readonly restartedAfter = computed(() => {
+    const o = this.overview();
+    const current = o?.segments.find((s) => s.current);
+    return current?.change && o!.series.some((s) => !s.current) ? current.change : null;
+  });
 
   ngOnInit(): void {
     this.load();

@@ -1,14 +1,17 @@
 import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input } from '@angular/core';
-import type { ChartData, ChartOptions } from 'chart.js';
+import type { ChartData, ChartDataset, ChartOptions } from 'chart.js';
 import { Legend, LineController, LineElement, LinearScale, PointElement, Tooltip } from 'chart.js';
 import { BaseChartDirective, provideCharts } from 'ng2-charts';
 
 import { themeColor } from '../../runs/run-detail/run-charts';
-import type { SeriesRun, StandardizationOverview } from './standardization.models';
+import type { ChartSegment, SeriesRun } from './standardization.models';
 
 type Point = { x: number; y: number };
 
-/** Individuals control chart of the energy equivalent: one point per run, centre line and 3σ limits. */
+/**
+ * Individuals control chart of the energy equivalent: one point per run, centre line and 3σ limits per segment.
+ * A recorded change to the apparatus starts a new segment; earlier segments stay, greyed, with their own limits.
+ */
 @Component({
   selector: 'qw-control-chart',
   imports: [BaseChartDirective],
@@ -25,59 +28,86 @@ export class ControlChart {
   private readonly host = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
 
   readonly series = input.required<SeriesRun[]>();
-  readonly chart = input.required<NonNullable<StandardizationOverview['chart']>>();
+  readonly segments = input.required<ChartSegment[]>();
 
   private readonly colors = {
     points: themeColor(this.host, '--mat-sys-primary', 'rgb(14, 92, 99)'),
+    previous: themeColor(this.host, '--mat-sys-outline', 'rgb(120, 120, 120)'),
     out: themeColor(this.host, '--mat-sys-error', 'rgb(186, 26, 26)'),
     limits: themeColor(this.host, '--mat-sys-tertiary', 'rgb(181, 101, 58)'),
     grid: themeColor(this.host, '--mat-sys-outline-variant', 'rgb(200, 200, 200)'),
     text: themeColor(this.host, '--mat-sys-on-surface', 'rgb(20, 20, 20)'),
   };
 
+  /** First and last x (1-based run position) of each segment. */
+  private readonly spans = computed(() => this.segments().map((seg) => {
+    const xs = this.series().flatMap((r, i) => (r.segment === seg.index ? [i + 1] : []));
+    return { seg, from: xs.length ? xs[0] - 0.5 : this.series().length + 0.5, to: xs.length ? xs[xs.length - 1] + 0.5 : this.series().length + 0.5 };
+  }));
+
   protected readonly summary = computed(() => {
-    const c = this.chart();
+    const current = this.segments().find((s) => s.current);
+    const c = current?.chart;
     const out = this.series().filter((s) => s.outOfControl).map((s) => s.code);
-    return `Control chart of the energy equivalent of ${this.series().length} runs: centre ${c.centre.toFixed(1)} J/K, limits ${c.lower.toFixed(1)} to ${c.upper.toFixed(1)} J/K; ${out.length ? `out of control: ${out.join(', ')}` : 'no run out of control'}`;
+    const change = current?.change ? ` The chart restarted after the change of ${current.change.date} (${current.change.description}); ${this.series().filter((s) => !s.current).length} earlier runs are shown as a previous segment.` : '';
+    const limits = c ? `centre ${c.centre.toFixed(1)} J/K, limits ${c.lower.toFixed(1)} to ${c.upper.toFixed(1)} J/K` : 'too few runs since the change for limits';
+    return `Control chart of the energy equivalent of ${this.series().length} runs: ${limits}; ${out.length ? `out of control: ${out.join(', ')}` : 'no run out of control'}.${change}`;
   });
 
   protected readonly data = computed((): ChartData<'line', Point[]> => {
     const s = this.series();
-    const c = this.chart();
-    const n = s.length;
-    const line = (y: number): Point[] => [{ x: 0.5, y }, { x: n + 0.5, y }];
-    return {
-      datasets: [
-        {
-          label: 'ε per run (J/K)', data: s.map((r, i) => ({ x: i + 1, y: r.energyEquivalent.value })), borderColor: this.colors.points, borderWidth: 1,
-          pointBackgroundColor: s.map((r) => (r.outOfControl ? this.colors.out : this.colors.points)),
-          pointBorderColor: s.map((r) => (r.outOfControl ? this.colors.out : this.colors.points)),
-          pointRadius: s.map((r) => (r.outOfControl ? 6 : 4)), pointStyle: s.map((r) => (r.outOfControl ? 'crossRot' : 'circle')),
-        },
-        { label: 'centre line', data: line(c.centre), borderColor: this.colors.text, borderWidth: 1, pointRadius: 0 },
-        { label: 'control limits (±3σ)', data: line(c.upper), borderColor: this.colors.limits, borderDash: [6, 3], borderWidth: 2, pointRadius: 0 },
-        { label: 'lower limit', data: line(c.lower), borderColor: this.colors.limits, borderDash: [6, 3], borderWidth: 2, pointRadius: 0 },
-      ],
-    };
+    const color = (r: SeriesRun) => (r.outOfControl ? this.colors.out : r.current ? this.colors.points : this.colors.previous);
+    const datasets: ChartDataset<'line', Point[]>[] = [
+      {
+        label: 'ε per run (J/K)', data: s.map((r, i) => ({ x: i + 1, y: r.energyEquivalent.value })), borderColor: this.colors.points, borderWidth: 1,
+        segment: { borderColor: (ctx) => (s[ctx.p1DataIndex]?.segment !== s[ctx.p0DataIndex]?.segment ? 'transparent' : s[ctx.p1DataIndex]?.current ? this.colors.points : this.colors.previous) },
+        pointBackgroundColor: s.map(color), pointBorderColor: s.map(color),
+        pointRadius: s.map((r) => (r.outOfControl ? 6 : 4)), pointStyle: s.map((r) => (r.outOfControl ? 'crossRot' : 'circle')),
+      },
+    ];
+    const values = s.map((r) => r.energyEquivalent.value);
+    for (const { seg, from, to } of this.spans()) {
+      const c = seg.chart;
+      if (c) {
+        values.push(c.lower, c.upper);
+        const line = (y: number): Point[] => [{ x: from, y }, { x: to, y }];
+        const limitColor = seg.current ? this.colors.limits : this.colors.previous;
+        datasets.push(
+          { label: seg.current ? 'centre line' : 'earlier segment: centre', data: line(c.centre), borderColor: seg.current ? this.colors.text : this.colors.previous, borderWidth: 1, pointRadius: 0 },
+          { label: seg.current ? 'control limits (±3σ)' : 'earlier segment: limits', data: line(c.upper), borderColor: limitColor, borderDash: [6, 3], borderWidth: seg.current ? 2 : 1, pointRadius: 0 },
+          { label: 'lower limit', data: line(c.lower), borderColor: limitColor, borderDash: [6, 3], borderWidth: seg.current ? 2 : 1, pointRadius: 0 },
+        );
+      }
+    }
+    const lo = Math.min(...values), hi = Math.max(...values);
+    for (const { seg, from } of this.spans()) {
+      if (seg.change) {
+        datasets.push({ label: 'apparatus change', data: [{ x: from, y: lo }, { x: from, y: hi }], borderColor: this.colors.text, borderDash: [2, 2], borderWidth: 2, pointRadius: 0 });
+      }
+    }
+    return { datasets };
   });
 
-  protected readonly options = computed((): ChartOptions<'line'> => ({
-    responsive: true,
-    maintainAspectRatio: false,
-    animation: false,
-    parsing: false,
-    scales: {
-      x: {
-        type: 'linear', min: 0.5, max: this.series().length + 0.5,
-        title: { display: true, text: 'run, in date order', color: this.colors.text },
-        ticks: { stepSize: 1, color: this.colors.text, callback: (v) => this.series()[Number(v) - 1]?.code ?? '' },
-        grid: { color: this.colors.grid },
+  protected readonly options = computed((): ChartOptions<'line'> => {
+    return {
+      responsive: true,
+      maintainAspectRatio: false,
+      animation: false,
+      parsing: false,
+      scales: {
+        x: {
+          type: 'linear', min: 0.5, max: Math.max(1, this.series().length) + 0.5,
+          title: { display: true, text: 'run, in date order', color: this.colors.text },
+          ticks: { stepSize: 1, color: this.colors.text, callback: (v) => this.series()[Number(v) - 1]?.code ?? '' },
+          grid: { color: this.colors.grid },
+        },
+        y: { type: 'linear', title: { display: true, text: 'energy equivalent ε / (J/K)', color: this.colors.text }, grid: { color: this.colors.grid }, ticks: { color: this.colors.text } },
       },
-      y: { type: 'linear', title: { display: true, text: 'energy equivalent ε / (J/K)', color: this.colors.text }, grid: { color: this.colors.grid }, ticks: { color: this.colors.text } },
-    },
-    plugins: {
-      legend: { labels: { color: this.colors.text, filter: (item) => item.text !== 'lower limit' } },
-      tooltip: { callbacks: { label: (ctx) => (ctx.datasetIndex === 0 ? `${this.series()[ctx.dataIndex]?.code}: ${ctx.parsed.y?.toFixed(1)} J/K` : `${ctx.dataset.label}: ${ctx.parsed.y?.toFixed(1)} J/K`) } },
-    },
-  }));
+      plugins: {
+        // One legend entry per kind of line (the lower limit and repeated segments share their upper line's entry).
+        legend: { labels: { color: this.colors.text, filter: (item, data) => item.text !== 'lower limit' && data.datasets.findIndex((d) => d.label === item.text) === item.datasetIndex } },
+        tooltip: { callbacks: { label: (ctx) => (ctx.datasetIndex === 0 ? `${this.series()[ctx.dataIndex]?.code}: ${ctx.parsed.y?.toFixed(1)} J/K` : `${ctx.dataset.label}: ${ctx.parsed.y?.toFixed(1)} J/K`) } },
+      },
+    };
+  });
 }

@@ -15,6 +15,26 @@ export interface SeriesRun {
   outOfControl: boolean;
   /** The control-chart rule the run breaks, in words. */
   rule: string | null;
+  /** Chart segment: a recorded change to the apparatus starts a new one (ASTM D240 §8.1.1). */
+  segment: number;
+  /** In the current segment: the runs a new standardization is made from. */
+  current: boolean;
+}
+
+export interface ChartLimits {
+  centre: number;
+  sigma: number;
+  lower: number;
+  upper: number;
+}
+
+export interface ChartSegment {
+  index: number;
+  /** The change that started the segment; null for the first. */
+  change: { date: string; description: string } | null;
+  n: number;
+  chart: ChartLimits | null;
+  current: boolean;
 }
 
 export interface Standardization {
@@ -43,7 +63,9 @@ export interface StandardizationOverview {
   current: Standardization | null;
   due: { since: string; description: string } | null;
   series: SeriesRun[];
-  chart: { centre: number; sigma: number; lower: number; upper: number } | null;
+  /** The current segment's limits (after the latest change). */
+  chart: ChartLimits | null;
+  segments: ChartSegment[];
   summary: { n: number; days: number; mean: number | null; sd: number | null; uMean: number | null; rsd: number | null; acceptance: { ok: boolean; reasons: string[] } };
   rule: { minRuns: number; minDays: number; maxRsd: number };
   history: Standardization[];

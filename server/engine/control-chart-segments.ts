@@ -1,0 +1,46 @@
+// A standardization series split at recorded changes to the apparatus: after a change the control chart starts
+// again, its centre line and limits computed from the runs after the change alone (ASTM D240 §8.1.1: standardize
+// again after changing any part of the calorimeter; ISO 7870-2: limits describe one stable process). Earlier runs
+// stay on the chart as previous segments, each judged against its own limits.
+import { summariseSeries, type AcceptanceRule, type SeriesPoint, type SeriesSummary } from './control-chart';
+
+export interface SeriesChange {
+  /** ISO date the change was made; runs on or after it belong to the new segment (as the STANDARDIZATION_DUE flag reads it). */
+  date: string;
+  description: string;
+}
+
+export interface Segment {
+  /** The change that opened the segment; null for the first. */
+  change: SeriesChange | null;
+  /** Indices into the points, [start, end). */
+  start: number;
+  end: number;
+  summary: SeriesSummary;
+  /** The last segment: the one a new standardization is made from. */
+  current: boolean;
+}
+
+/**
+ * Splits points in date order at the changes (any order) and summarises each segment. Segments left empty by two
+ * changes with no run between them are dropped, except the current one, which is always returned (it may be empty
+ * right after a change).
+ */
+export function segmentByChanges(points: readonly SeriesPoint[], changes: readonly SeriesChange[], rule: AcceptanceRule): Segment[] {
+  const sorted = [...changes].sort((a, b) => a.date.localeCompare(b.date));
+  const segments: Segment[] = [];
+  let start = 0;
+  const close = (change: SeriesChange | null, end: number, current: boolean) => {
+    if (end > start || current) segments.push({ change, start, end, summary: summariseSeries(points.slice(start, end), rule), current });
+    start = end;
+  };
+  let opening: SeriesChange | null = null;
+  for (const change of sorted) {
+    let end = start;
+    while (end < points.length && points[end].date.slice(0, 10) < change.date) end++;
+    close(opening, end, false);
+    opening = change;
+  }
+  close(opening, points.length, true);
+  return segments;
+}
