@@ -1,18 +1,19 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
+import { map } from 'rxjs';
 
-import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { DialogSave } from '../../../shared/forms/dialog-save';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { RunsApi } from '../runs-api';
 
 /** Asks why an approved run is corrected, then opens the new draft revision; closes with its id. */
 @Component({
   selector: 'qw-correction-dialog',
-  imports: [MatButtonModule, MatDialogModule, MatFormFieldModule, MatIconModule, MatInputModule, ReactiveFormsModule],
+  imports: [MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule, ProblemBanner, ReactiveFormsModule],
   template: `
     <h2 mat-dialog-title>Correct {{ data.code }}</h2>
     <form [formGroup]="form" (ngSubmit)="open()" novalidate>
@@ -29,13 +30,11 @@ import { RunsApi } from '../runs-api';
             <mat-error>Write at least 5 characters saying what is corrected and why.</mat-error>
           }
         </mat-form-field>
-        @if (problem(); as problem) {
-          <div class="page-error" role="alert"><mat-icon aria-hidden="true">error</mat-icon><span>{{ problem.detail }}</span></div>
-        }
+        <qw-problem-banner [problem]="save.problem()" [messages]="save.otherMessages()" />
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="sending()">Start the correction</button>
+        <button mat-flat-button type="submit" [disabled]="save.saving()">Start the correction</button>
       </mat-dialog-actions>
     </form>
   `,
@@ -44,27 +43,14 @@ import { RunsApi } from '../runs-api';
 })
 export class CorrectionDialog {
   private readonly api = inject(RunsApi);
-  private readonly dialogRef = inject<MatDialogRef<CorrectionDialog, number>>(MatDialogRef);
   protected readonly data = inject<{ runId: number; code: string }>(MAT_DIALOG_DATA);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     reason: ['', [Validators.required, (control: { value: string }) => (control.value.trim().length >= 5 ? null : { short: true })]],
   });
-  protected readonly sending = signal(false);
-  protected readonly problem = signal<ProblemDetails | null>(null);
+  protected readonly save = new DialogSave<number>(this.form);
 
   protected open(): void {
-    if (this.form.invalid || this.sending()) {
-      this.form.markAllAsTouched();
-      return;
-    }
-    this.sending.set(true);
-    this.api.revise(this.data.runId, this.form.getRawValue().reason.trim()).subscribe({
-      next: (revision) => this.dialogRef.close(revision.id),
-      error: (error: unknown) => {
-        this.problem.set(toProblem(error));
-        this.sending.set(false);
-      },
-    });
+    this.save.submit(() => this.api.revise(this.data.runId, this.form.getRawValue().reason.trim()).pipe(map((revision) => revision.id)));
   }
 }
