@@ -2,6 +2,9 @@
 // Prints the balance result as JSON on stdout; exits 1 with a message on stderr for unreadable or invalid input.
 import { readFileSync } from 'node:fs';
 import { checkRunDocument, type BalanceSettings } from '../server/engine';
+import { exitWithUsageOnHelp } from './cli-help';
+
+exitWithUsageOnHelp(__filename);
 
 function usage(message: string): never {
   process.stderr.write(`${message}\nusage: npm run balance -- FILE.json [--draws N] [--seed S] [--k K] [--indeterminate F]\n`);

@@ -9,6 +9,9 @@ import { monteCarlo } from '../server/engine/monte-carlo';
 import { buildRunModel } from '../server/engine/run-model';
 import { buildSeries } from '../server/engine/series';
 import { R_GAS } from '../server/engine/units';
+import { exitWithUsageOnHelp } from './cli-help';
+
+exitWithUsageOnHelp(__filename);
 
 const round = (x: number, step: number) => Number((Math.round(x / step) * step).toFixed(Math.round(-Math.log10(step))));
 

@@ -10,6 +10,9 @@ import { seedDemoLab } from '../db/seed/seed';
 import { openBrowser, screenshot } from '../e2e/support/browser';
 import { startServer } from '../e2e/support/server-process';
 import { signInAs } from '../e2e/support/sign-in';
+import { exitWithUsageOnHelp } from './cli-help';
+
+exitWithUsageOnHelp(__filename);
 
 type Kind = 'script' | 'stylesheet' | 'font';
 const KINDS: readonly Kind[] = ['script', 'stylesheet', 'font'];

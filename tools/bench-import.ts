@@ -14,6 +14,9 @@ import { checkRows } from '../server/imports/row-validation';
 import { buildTable } from '../server/imports/table-builder';
 import { readXlsx } from '../server/imports/xlsx-reader';
 import { readingsToRows } from '../server/runs/run-document-mapper';
+import { exitWithUsageOnHelp } from './cli-help';
+
+exitWithUsageOnHelp(__filename);
 
 const HEADER = ['Time (s)', 'P (kPa)', 'Piston position [mm]', 'T/°C', 'U/V', 'Heater current (mA)'];
 

@@ -1,5 +1,6 @@
-# Shared steps for tools/start and tools/test. Sourced, not run.
+# Shared steps for the scripts under tools/. Sourced, not run.
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+script="$(cd "$(dirname "$0")" && pwd)/$(basename "$0")"
 cd "$root"
 export NG_CLI_ANALYTICS=false
 export NODE_OPTIONS="${NODE_OPTIONS:-} --max-old-space-size=4096"
@@ -23,3 +24,12 @@ ensure_chromium() {
 }
 
 tsx_run() { node_modules/.bin/tsx --tsconfig tsconfig.server.json "$@"; }
+
+# -h or --help among the arguments: print the calling script's header comment (its usage) and exit
+# before doing anything. Every script under tools/ that package.json names calls this first.
+help_if_asked() {
+  local a
+  for a in "$@"; do
+    case "$a" in -h|--help) awk 'NR > 1 && /^#/ { sub(/^# ?/, ""); print; next } NR > 1 { exit }' "$script"; exit 0 ;; esac
+  done
+}

@@ -3,6 +3,9 @@
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { dataDir } from '../server/config';
+import { exitWithUsageOnHelp } from './cli-help';
+
+exitWithUsageOnHelp(__filename);
 
 const dir = process.env['QWELL_MAIL_DIR'] ?? join(dataDir, 'mail');
 const count = Number(process.argv[2] ?? 10);
