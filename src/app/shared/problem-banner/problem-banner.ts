@@ -20,6 +20,11 @@ import { ProblemDetails } from '../../core/http/problem-details';
       </div>
     }
   `,
+  // No box of its own: the alert lays out as the page's or form's own child, across a form grid's columns.
+  styles: `
+    :host { display: contents; }
+    .page-error { grid-column: 1 / -1; }
+  `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ProblemBanner {
