@@ -1,8 +1,13 @@
-import { asc, desc, gt, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gt, notInArray, sql, type SQL } from 'drizzle-orm';
 import { isIP } from 'node:net';
 import type { Database, DbOrTx, Tx } from '../../db/client';
-import { auditEvents } from '../../db/schema';
+import { auditEvents, people, runs } from '../../db/schema';
+import type { SessionPerson } from '../core/session';
 import { eventHash, GENESIS_HASH, type ChainedFields } from './audit-chain';
+import type { AuditQuery } from './audit-dto';
+import { readableEvents } from './audit-names';
+import { SIGN_IN_ACTIONS } from './audit-readable';
+import { auditScope } from './audit-scope';
 
 export interface AuditInput {
   actorId?: number | null;
@@ -132,4 +137,44 @@ export async function walkAuditChain(db: DbOrTx, pageSize = 5000): Promise<Chain
     if (page.length < pageSize) break;
   }
   return { valid: brokenCount === 0, checked, head, brokenCount, broken, ...(broken[0] ? { firstBroken: broken[0] } : {}) };
+}
+
+// Reading the trail: every read is limited to what the reader may see (auditScope).
+
+/** The filters of GET /api/audit and of the audit export, as one SQL condition. */
+export function auditFilters(q: AuditQuery): SQL | undefined {
+  const filters: SQL[] = [];
+  if (q.run !== undefined) {
+    // A code covers every revision of the run; digits alone are a run id.
+    const ids = /^\d+$/.test(q.run) ? sql`(${q.run})` : sql`(SELECT ${runs.id}::text FROM ${runs} WHERE ${runs.code} = ${q.run.toUpperCase()})`;
+    filters.push(and(eq(auditEvents.entityType, 'run'), sql`${auditEvents.entityId} IN ${ids}`)!);
+  }
+  if (q.signIns === 'hide') filters.push(notInArray(auditEvents.action, [...SIGN_IN_ACTIONS]));
+  if (q.person !== undefined) filters.push(eq(auditEvents.actorId, q.person));
+  if (q.action) filters.push(eq(auditEvents.action, q.action));
+  if (q.entityType) filters.push(eq(auditEvents.entityType, q.entityType));
+  if (q.from) filters.push(sql`${auditEvents.occurredAt} >= ${q.from}::date`);
+  if (q.to) filters.push(sql`${auditEvents.occurredAt} < (${q.to}::date + 1)`);
+  return filters.length ? and(...filters) : undefined;
+}
+
+export class AuditService {
+  constructor(private readonly db: Database) {}
+
+  /** One page of the trail, newest first, in the lab's words. */
+  async list(person: SessionPerson, q: AuditQuery) {
+    const where = and(auditFilters(q), await auditScope(this.db, person, q));
+    const [items, [{ total }]] = await Promise.all([
+      this.db.select().from(auditEvents).where(where).orderBy(desc(auditEvents.id)).limit(q.pageSize).offset((q.page - 1) * q.pageSize),
+      this.db.select({ total: count() }).from(auditEvents).where(where),
+    ]);
+    return { items: await readableEvents(this.db, items), total, page: q.page, pageSize: q.pageSize };
+  }
+
+  /** People who appear in the part of the trail the reader may see. */
+  async actors(person: SessionPerson) {
+    const items = await this.db.selectDistinct({ id: people.id, name: people.name, email: people.email })
+      .from(auditEvents).innerJoin(people, eq(people.id, auditEvents.actorId)).where(await auditScope(this.db, person, {})).orderBy(people.name);
+    return { items };
+  }
 }

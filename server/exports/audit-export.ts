@@ -1,9 +1,8 @@
 import type { Database } from '../../db/client';
-import { auditFilters } from '../audit/audit-router';
 import { and } from 'drizzle-orm';
 import { takeCheckpoint, verifyAuditChain } from '../audit/audit-checkpoint';
 import { auditScope, INVESTIGATOR_SCOPE } from '../audit/audit-scope';
-import { recordAudit } from '../audit/audit-service';
+import { auditFilters, recordAudit } from '../audit/audit-service';
 import type { Config } from '../config';
 import type { SessionPerson } from '../core/session';
 import { writeAuditCsv } from './audit-csv';
