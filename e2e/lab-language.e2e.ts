@@ -103,7 +103,11 @@ describe('a technician, on the charts and the pressure alert', () => {
     await page.waitForURL(new RegExp(`/runs/${created.id}$`), { timeout: 20_000 });
     const alert = page.locator('aside.pressure-alert[role="alert"]');
     await alert.waitFor({ timeout: 45_000 });
-    expect(await alert.textContent()).toContain('Safety alert: above the rated pressure');
+    const alertText = (await alert.textContent())!.replace(/\s+/g, ' ');
+    expect(alertText).toContain('Safety alert: above the rated pressure');
+    // Said once, in kPa with its reference: not the engine's SI figures beside it.
+    expect(alertText).toMatch(/Reading \d+ reaches [\d.]+ kPa absolute, above the vessel's rated [\d.]+ kPa absolute\./);
+    expect(alertText).not.toMatch(/\d Pa\b/);
     const note = (await page.locator('qw-pv-diagram .note').textContent()) ?? '';
     // γ of CO₂ at the run's mean temperature (300 K → 227 K, about 264 K): between 1.28 and 1.32 (REFERENCES §2b:
     // 1.28854 at 298.15 K, rising as Cp falls with temperature), not the 1.4 of a diatomic gas.
@@ -154,6 +158,15 @@ describe('an investigator', () => {
   it('reads the why of a breaking demo run and its history in the audit trail by run code', async () => {
     const { page } = s;
     await signInAs(page, 'investigator');
+    // The review tile counts exactly the list it opens: submitted runs written by others.
+    const review = page.getByRole('link', { name: /Runs to review/ });
+    const toReview = Number(await review.locator('.tile-count').textContent());
+    await review.click();
+    await page.getByText('Only runs written by others').waitFor();
+    const listed = page.locator('tr.mat-mdc-row td.code a');
+    if (toReview > 0) await listed.first().waitFor({ timeout: 20_000 });
+    else await page.getByText('No runs match this filter.').waitFor({ timeout: 20_000 });
+    expect(await listed.count()).toBe(Math.min(toReview, 25));
     await page.goto('/runs?verdict=breaks');
     await checkScreen(page, 'runs-breaks-investigator');
     await page.getByRole('link', { name: /^R-2026-/ }).first().click();
@@ -189,6 +202,18 @@ describe('a quality officer', () => {
       await page.goto(path);
       await checkScreen(page, name);
     }
+    // The safety tile counts the runs over their rated pressure (the technician's CO₂ run above is one) and links to them.
+    await page.goto('/home');
+    const tile = page.getByRole('link', { name: /Runs above the rated pressure/ });
+    const count = Number(await tile.locator('.tile-count').textContent());
+    expect(count).toBeGreaterThan(0);
+    expect(await tile.textContent()).toContain('Safety');
+    await tile.click();
+    await page.getByText('Only runs above the rated pressure').waitFor();
+    const listed = page.locator('tr.mat-mdc-row td.code a');
+    await listed.first().waitFor({ timeout: 20_000 });
+    expect(await listed.count()).toBe(Math.min(count, 25));
+    await checkScreen(page, 'runs-over-pressure-quality');
   });
 });
 

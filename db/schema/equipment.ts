@@ -79,6 +79,8 @@ export const apparatus = pgTable('apparatus', {
   heatLossCoefficientU: doublePrecision('heat_loss_coefficient_u'),
   /** Pa, the vessel's rated (maximum allowable working) pressure. */
   ratedPressure: doublePrecision('rated_pressure'),
+  /** Whether the rating is absolute or gauge (above the barometric pressure), as written on the vessel's plate. */
+  ratedPressureReference: text('rated_pressure_reference', { enum: ['absolute', 'gauge'] }).notNull().default('absolute'),
   /** m, piston bore when volume comes from displacement. */
   bore: doublePrecision('bore'),
   /** m³, when the vessel volume is fixed. */

@@ -1,4 +1,4 @@
-import { IsNumber, IsOptional, IsString, Length, Matches, Min } from 'class-validator';
+import { IsIn, IsNumber, IsOptional, IsString, Length, Matches, Min } from 'class-validator';
 
 /** POST /api/apparatus and PUT /api/apparatus/:id: the whole register entry, quantities in SI units. */
 export class ApparatusDto {
@@ -16,6 +16,8 @@ export class ApparatusDto {
   @IsOptional() @IsNumber({}, { message: 'heatLossCoefficient must be a number (W/K)' }) @Min(0) heatLossCoefficient?: number | null;
   @IsOptional() @IsNumber({}, { message: 'heatLossCoefficientU must be a number (W/K)' }) @Min(0) heatLossCoefficientU?: number | null;
   @IsOptional() @IsNumber({}, { message: 'ratedPressure must be a number (Pa)' }) @Min(0) ratedPressure?: number | null;
+  @IsOptional() @IsIn(['absolute', 'gauge'], { message: 'ratedPressureReference must be "absolute" or "gauge" (above the barometric pressure)' })
+  ratedPressureReference?: 'absolute' | 'gauge';
   @IsOptional() @IsNumber({}, { message: 'bore must be a number (m)' }) @Min(0) bore?: number | null;
   @IsOptional() @IsNumber({}, { message: 'fixedVolume must be a number (m³)' }) @Min(0) fixedVolume?: number | null;
   @IsOptional() @IsString() @Length(0, 2000) notes?: string;

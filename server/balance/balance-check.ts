@@ -4,12 +4,13 @@ import { balanceResults, people, runs } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
 import type { Config } from '../config';
 import { checkRunDocument } from '../engine';
-import { projectAddresses, queueMail } from '../mail/outbox';
+import { projectAddresses, queueMail, roleAddresses } from '../mail/outbox';
 import { loadRunDocument } from '../runs/run-loader';
 import type { RunSetup } from '../runs/run-setup';
 import { runStandardization } from '../standardizations/standardization-pin';
 import { runLink } from '../mail/run-link';
 import { plainProblem } from '../runs/submit-checklist';
+import { overPressureMail, overPressureOf } from './over-pressure';
 import { whySentence } from './why-sentence';
 
 export type CheckOutcome = 'stored' | 'stale' | 'invalid';
@@ -59,6 +60,13 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
       const investigators = await projectAddresses(tx, locked.projectId, 'investigator');
       const body = `Run ${locked.code} "${locked.title}" does not close its energy balance: En = ${result.En?.toFixed(2)} (> 1).\nr = ΔU − (Q − W) = ${result.residual.r.toPrecision(4)} J, U(r) = ${result.residual.U.toPrecision(2)} J (k = ${result.residual.k}).\nWhy: ${whySentence(result)}\nOpen the run to see the flags and hints: ${runLink(config.publicUrl, runId)}`;
       await queueMail(tx, [...new Set([...investigators, author.email])].map((to) => ({ to, subject: `Run ${locked.code}: the energy balance breaks`, body })));
+    }
+    const over = overPressureOf(result);
+    if (over) {
+      // A safety event, whatever the verdict: the project's investigators and every quality officer hear of it.
+      const to = new Set([...(await projectAddresses(tx, locked.projectId, 'investigator')), ...(await roleAddresses(tx, ['quality']))]);
+      const mail = overPressureMail(locked, over, runLink(config.publicUrl, runId));
+      await queueMail(tx, [...to].map((address) => ({ to: address, ...mail })));
     }
     return 'stored';
   });

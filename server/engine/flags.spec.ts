@@ -107,6 +107,40 @@ describe('ABOVE_RATED_PRESSURE', () => {
   it('does not raise within the rating', () => {
     expect(codes(load('isochoric.json'))).not.toContain('ABOVE_RATED_PRESSURE');
   });
+  it('says the reading and the rating in kPa and names the reference, without the SI figures', () => {
+    const doc = load('isochoric.json');
+    doc.apparatus.ratedPressure = { value: 100, unit: 'kPa' };
+    const f = flagsOf(doc, 'ABOVE_RATED_PRESSURE');
+    expect(f.length).toBeGreaterThan(0);
+    const first = doc.readings.pressure.values[f[0].reading! - 1] * 6894.757293168361; // psi → Pa (NIST SP 811 B.8)
+    expect(f[0].message).toMatch(/^Reading \d+ reaches [\d.]+ kPa absolute, above the vessel's rated 100 kPa absolute;/);
+    expect(f[0].message).not.toMatch(/\d Pa\b/);
+    expect(f[0].message).toContain(`reaches ${Number((first / 1000).toPrecision(4))} kPa absolute`);
+  });
+  it('reads a gauge rating above the run\'s barometric pressure (P_abs = P_gauge + P_baro, common practice)', () => {
+    // The vessel peaks near 15.93 psi absolute ≈ 109.8 kPa; the barometer reads 760.2 mmHg ≈ 101.35 kPa.
+    const doc = load('isochoric.json');
+    doc.apparatus.ratedPressure = { value: 10, unit: 'kPa' };
+    expect(flagsOf(doc, 'ABOVE_RATED_PRESSURE').length).toBeGreaterThan(0); // 10 kPa absolute: every reading is above
+    doc.apparatus.ratedPressure = { value: 10, unit: 'kPa', reference: 'gauge' };
+    expect(codes(doc)).not.toContain('ABOVE_RATED_PRESSURE'); // 10 kPa gauge ≈ 111.35 kPa absolute: none is
+    doc.apparatus.ratedPressure = { value: 5, unit: 'kPa', reference: 'gauge' };
+    const f = flagsOf(doc, 'ABOVE_RATED_PRESSURE');
+    expect(f.length).toBeGreaterThan(0);
+    expect(f[0].message).toMatch(/kPa gauge, above the vessel's rated 5 kPa gauge;/);
+    doc.apparatus.ratedPressure = { value: 0.7, unit: 'psi', reference: 'gauge' };
+    expect(flagsOf(doc, 'ABOVE_RATED_PRESSURE')[0].message).toMatch(/kPa gauge, above the vessel's rated 4.826 kPa gauge \(0.7 psi\);/); // 0.7 × 6.894757 kPa
+  });
+  it('refuses a gauge rating on a run with no barometric pressure, and an unknown reference', () => {
+    const doc = load('isochoric.json');
+    doc.apparatus.ratedPressure = { value: 5, unit: 'kPa', reference: 'gauge' };
+    delete doc.ambient.pressure;
+    const res = checkRunDocument(doc, { draws: 0 });
+    expect(res.ok ? [] : res.errors.map((e) => e.path)).toContain('ambient.pressure');
+    doc.apparatus.ratedPressure = { value: 5, unit: 'kPa', reference: 'sealed' };
+    const bad = checkRunDocument(doc, { draws: 0 });
+    expect(bad.ok ? [] : bad.errors.map((e) => e.path)).toContain('apparatus.ratedPressure.reference');
+  });
 });
 
 describe('ISOTHERMAL_DRIFT (span of block means above 1 % of the mean temperature plus 3 u of the span)', () => {

@@ -36,6 +36,8 @@ export interface Flag {
   message: string;
   /** The run cannot be submitted while this stands (a channel whose uncertainty is not stated). */
   blocking?: boolean;
+  /** On the closing line of a code listed only in part: how many more readings raise it. */
+  more?: number;
 }
 
 /** A gap is a time step longer than this many times the median step. */
@@ -93,7 +95,7 @@ class FlagList {
   }
   summarise(): void {
     for (const [code, n] of this.counts) {
-      if (n > MAX_PER_CODE) this.flags.push({ code, reading: null, message: `${n - MAX_PER_CODE} more readings raise ${code}; only the first ${MAX_PER_CODE} are listed.` });
+      if (n > MAX_PER_CODE) this.flags.push({ code, reading: null, message: `${n - MAX_PER_CODE} more readings raise ${code}; only the first ${MAX_PER_CODE} are listed.`, more: n - MAX_PER_CODE });
     }
   }
 }
@@ -112,6 +114,11 @@ function medianInPlace(a: Float64Array): number {
 
 function fmt(x: number): string {
   return Number(x.toPrecision(6)).toString();
+}
+
+/** A pressure in Pa as kPa, four significant digits: how the lab reads a gauge. */
+function kPa(pa: number): string {
+  return Number((pa / 1000).toPrecision(4)).toString();
 }
 
 function spanOf(a: Float64Array): { min: number; max: number; iMin: number; iMax: number; mean: number } {
@@ -202,10 +209,19 @@ export function dataQualityFlags(ctx: FlagContext): Flag[] {
 
   const rated = doc.apparatus?.ratedPressure;
   if (rated && series.P) {
-    // Qwell reads a rating as absolute pressure, the conservative reading of a vessel plate.
-    const ratedPa = toSi('pressure', rated.unit, rated.value);
+    // An absolute rating is compared as it stands; a gauge rating (the usual vessel plate) lies above the run's
+    // barometric pressure: P_abs = P_gauge + P_barometric (common practice).
+    const gauge = rated.reference === 'gauge';
+    const ratedPa = toSi('pressure', rated.unit, rated.value) + (gauge ? (series.ambientPressure?.value ?? 0) : 0);
+    // In kPa, as the readings are said; a rating written in another unit keeps its own figure beside it.
+    const asWritten = rated.unit === 'Pa' || rated.unit === 'kPa' ? '' : ` (${fmt(rated.value)} ${rated.unit})`;
+    const ratedText = `${kPa(toSi('pressure', rated.unit, rated.value))} kPa ${gauge ? 'gauge' : 'absolute'}${asWritten}`;
     for (let i = 0; i < N; i++) {
-      if (series.P.si[i] > ratedPa) out.add('ABOVE_RATED_PRESSURE', i + 1, `Reading ${i + 1} reaches ${fmt(series.P.si[i])} Pa, above the apparatus's rated ${fmt(ratedPa)} Pa; stay within the vessel's rating and the lab's safety review.`);
+      const p = series.P.si[i];
+      if (p > ratedPa) {
+        const reading = gauge ? `${kPa(p - (series.ambientPressure?.value ?? 0))} kPa gauge` : `${kPa(p)} kPa absolute`;
+        out.add('ABOVE_RATED_PRESSURE', i + 1, `Reading ${i + 1} reaches ${reading}, above the vessel's rated ${ratedText}; stay within the vessel's rating and the lab's safety review.`);
+      }
     }
   }
 

@@ -67,7 +67,8 @@ export interface Apparatus {
   heatCapacity?: Quantity;
   heatLossCoefficient?: Quantity;
   wallUptake?: Quantity;
-  ratedPressure?: Quantity;
+  /** The vessel's rated pressure; a gauge rating is read above the run's barometric pressure (default absolute). */
+  ratedPressure?: Quantity & { reference?: 'absolute' | 'gauge' };
   pistonBore?: Quantity;
   deadVolume?: Quantity;
   vesselVolume?: Quantity;
@@ -200,6 +201,10 @@ export function validateRunDocument(input: unknown): ValidationResult {
   for (const [key, kind] of Object.entries(APPARATUS_KINDS)) {
     if (apparatus[key] !== undefined) c.quantity(apparatus[key], `apparatus.${key}`, kind, { positive: key === 'pistonBore' || key === 'vesselVolume' || key === 'heatCapacity' });
   }
+  const ratedReference = isObject(apparatus['ratedPressure']) ? apparatus['ratedPressure']['reference'] : undefined;
+  if (ratedReference !== undefined && ratedReference !== 'absolute' && ratedReference !== 'gauge') {
+    c.add('apparatus.ratedPressure.reference', `must be "absolute" or "gauge", got ${JSON.stringify(ratedReference)}`);
+  }
 
   const instrumentIds = validateInstruments(input['instruments'], c);
   const baro = ambient?.['pressure'];
@@ -223,6 +228,9 @@ export function validateRunDocument(input: unknown): ValidationResult {
       ? ((input['readings'] as Record<string, unknown>)['pressure'] as Record<string, unknown>) : undefined;
     if (pressure?.['reference'] === 'gauge' && ambient?.['pressure'] === undefined) {
       c.add('ambient.pressure', 'is required because readings.pressure.reference is "gauge": a gauge reading needs the barometric pressure to become absolute');
+    }
+    if (ratedReference === 'gauge' && has('pressure') && ambient?.['pressure'] === undefined) {
+      c.add('ambient.pressure', 'is required because the apparatus\'s rated pressure is a gauge rating: the readings are compared with it above the barometric pressure');
     }
     if (has('voltage') !== has('current')) c.add(has('voltage') ? 'readings.current' : 'readings.voltage', 'heater voltage and current must be given together (Q = ∫U·I dt)');
     if (has('power') && (has('voltage') || has('current'))) c.add('readings.power', 'give heater power or voltage and current, not both');

@@ -18,6 +18,8 @@ export interface RunReportData {
   apparatus: string;
   /** Pa, the vessel's rated pressure when the register has it. */
   ratedPressure: number | null;
+  /** Whether the rating is absolute or gauge (above the barometric pressure). */
+  ratedPressureReference: 'absolute' | 'gauge';
   result: { id: number; runVersion: number; computedAt: Date; stale: boolean; value: BalanceResult } | null;
   /** SI P (Pa) and V (m³) from the engine, when the run has a pressure–volume path. */
   pv: { P: Float64Array; V: Float64Array } | null;
@@ -60,6 +62,7 @@ export async function loadRunReport(db: Database, config: Config, person: Sessio
     gas: gas ? `${gas.name} (${gas.code})` : run.process === 'calorimetric' ? 'calorimeter contents' : 'not set',
     apparatus: appRow ? `${appRow.tag} ${appRow.name}` : 'not set',
     ratedPressure: appRow?.ratedPressure ?? null,
+    ratedPressureReference: appRow?.ratedPressureReference ?? 'absolute',
     result: result ? { id: result.id, runVersion: result.runVersion, computedAt: result.computedAt, stale: result.computedAt < run.editedAt, value: result.result as unknown as BalanceResult } : null,
     pv, pvNote, signatures: sigs, history,
   };

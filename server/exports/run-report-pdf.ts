@@ -53,7 +53,7 @@ function caution(doc: Pdf, d: RunReportData): void {
   let text = SAFETY_CAUTION;
   if (d.ratedPressure !== null) {
     const peak = d.pv ? Math.max(...Array.from(d.pv.P)) : null;
-    text += ` Rated pressure of ${d.apparatus}: ${sig(d.ratedPressure / 1000, 4)} kPa` + (peak !== null ? `; highest pressure in this run: ${sig(peak / 1000, 4)} kPa.` : '.');
+    text += ` Rated pressure of ${d.apparatus}: ${sig(d.ratedPressure / 1000, 4)} kPa ${d.ratedPressureReference}` + (peak !== null ? `; highest pressure in this run: ${sig(peak / 1000, 4)} kPa absolute.` : '.');
   }
   const x = doc.page.margins.left;
   const width = doc.page.width - x - doc.page.margins.right;

@@ -3,6 +3,7 @@ import type { Database } from '../../db/client';
 import { people, runs, type RunState } from '../../db/schema';
 import type { SessionPerson } from '../core/session';
 import { InstrumentsService } from '../instruments/instruments-service';
+import { overPressureFilter } from '../runs/run-filters';
 import { visibleProjectIds } from '../runs/run-access';
 
 /** One entry of a person's home queue: a count and where the list behind it lives. */
@@ -13,6 +14,11 @@ export interface Queue {
   link: string;
   queryParams?: Record<string, string>;
 }
+
+/** Runs whose readings went above the vessel's rated pressure: a safety tile for reviewers and quality officers. */
+const OVER_PRESSURE_TILE = (count: number): Queue => ({
+  key: 'over-pressure', label: 'Runs above the rated pressure', count, link: '/runs', queryParams: { safety: 'over-pressure' },
+});
 
 export class HomeService {
   constructor(private readonly db: Database) {}
@@ -36,25 +42,32 @@ export class HomeService {
     const projectIds = (await visibleProjectIds(this.db, person)) ?? [];
     // Segregation of duties: one's own runs are never in one's review queue.
     const base = [inArray(runs.projectId, projectIds), eq(runs.state, 'submitted'), ne(runs.authorId, person.id)];
-    const [review, breaking] = projectIds.length === 0
-      ? [0, 0]
-      : await Promise.all([this.countRuns(...base), this.countRuns(...base, eq(runs.verdict, 'breaks'))]);
+    const [review, breaking, overPressure] = projectIds.length === 0
+      ? [0, 0, 0]
+      : await Promise.all([
+        this.countRuns(...base),
+        this.countRuns(...base, eq(runs.verdict, 'breaks')),
+        this.countRuns(inArray(runs.projectId, projectIds), overPressureFilter()),
+      ]);
+    // Each tile's link carries exactly the filters its count used (others: the same segregation of duties).
     return [
-      { key: 'runs-to-review', label: 'Runs to review', count: review, link: '/runs', queryParams: { state: 'submitted' } },
-      { key: 'breaking-balances', label: 'Balances that break', count: breaking, link: '/runs', queryParams: { state: 'submitted', verdict: 'breaks' } },
+      { key: 'runs-to-review', label: 'Runs to review', count: review, link: '/runs', queryParams: { state: 'submitted', others: 'true' } },
+      { key: 'breaking-balances', label: 'Balances that break', count: breaking, link: '/runs', queryParams: { state: 'submitted', verdict: 'breaks', others: 'true' } },
+      OVER_PRESSURE_TILE(overPressure),
     ];
   }
 
   private async qualityQueues(): Promise<Queue[]> {
     const register = await new InstrumentsService(this.db).list();
     const tally = (status: string) => register.filter((i) => (i.calibration?.status ?? 'none') === status).length;
-    const submitted = await this.countRuns(eq(runs.state, 'submitted'));
+    const [submitted, overPressure] = await Promise.all([this.countRuns(eq(runs.state, 'submitted')), this.countRuns(overPressureFilter())]);
     return [
       { key: 'calibrations-due', label: 'Calibrations due within 30 days', count: tally('due-soon'), link: '/instruments', queryParams: { status: 'due-soon' } },
       // Each tile counts exactly what its link lists: overdue calibrations and never-calibrated instruments are two lists.
       { key: 'out-of-calibration', label: 'Instruments out of calibration', count: tally('expired'), link: '/instruments', queryParams: { status: 'expired' } },
       { key: 'never-calibrated', label: 'Instruments with no calibration', count: tally('none'), link: '/instruments', queryParams: { status: 'none' } },
       { key: 'runs-waiting', label: 'Runs waiting for review', count: submitted, link: '/runs', queryParams: { state: 'submitted' } },
+      OVER_PRESSURE_TILE(overPressure),
     ];
   }
 

@@ -180,7 +180,7 @@ function apparatusOf(a: DocumentContext['apparatus'], setup: RunSetup, pinned?: 
     heatLossCoefficient: pinnedHeatLossApplies(setup, pinned)
       ? q(pinned!.heatLossCoefficient, 'W/K', pinned!.heatLossCoefficientU)
       : q(a?.heatLossCoefficient, 'W/K', a?.heatLossCoefficientU),
-    ratedPressure: q(a?.ratedPressure, 'Pa'),
+    ratedPressure: a?.ratedPressure === null || a?.ratedPressure === undefined ? undefined : { value: a.ratedPressure, unit: 'Pa', reference: a.ratedPressureReference ?? 'absolute' },
     pistonBore: q(a?.bore, 'm'),
     vesselVolume: q(a?.fixedVolume, 'm3'),
     ...extra,

@@ -31,6 +31,13 @@ export class RunListQuery {
   @IsOptional() @IsIn(['true', 'false'], { message: 'mine must be true or false' })
   mine?: 'true' | 'false';
 
+  /** Runs written by others: a reviewer's queue never holds their own runs. */
+  @IsOptional() @IsIn(['true', 'false'], { message: 'others must be true or false' })
+  others?: 'true' | 'false';
+
+  @IsOptional() @IsIn(['over-pressure'], { message: 'safety must be over-pressure (runs whose readings went above the rated pressure)' })
+  safety?: 'over-pressure';
+
   @IsOptional() @IsCalendarDay({ message: 'from must be a date like 2026-03-14' })
   from?: string;
 

@@ -91,8 +91,8 @@ describe('GET /api/home', () => {
     const keys = async (role: 'technician' | 'investigator' | 'quality' | 'admin') =>
       (await (await clientAs(h.app, role)).get('/api/home')).body.queues.map((q: { key: string }) => q.key);
     expect(await keys('technician')).toEqual(['my-drafts', 'returned-to-me', 'waiting-for-review']);
-    expect(await keys('investigator')).toEqual(['runs-to-review', 'breaking-balances']);
-    expect(await keys('quality')).toEqual(['calibrations-due', 'out-of-calibration', 'never-calibrated', 'runs-waiting']);
+    expect(await keys('investigator')).toEqual(['runs-to-review', 'breaking-balances', 'over-pressure']);
+    expect(await keys('quality')).toEqual(['calibrations-due', 'out-of-calibration', 'never-calibrated', 'runs-waiting', 'over-pressure']);
     expect(await keys('admin')).toEqual(['people', 'locked-accounts']);
     const review = (await (await clientAs(h.app, 'investigator')).get('/api/home')).body.queues[0];
     expect(review.count).toBeGreaterThanOrEqual(3);

@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, ne, sql, type SQL } from 'drizzle-orm';
 import type { Database, DbOrTx } from '../../db/client';
 import { apparatus, balanceResults, gases, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
 import { recordAudit, recordAuditAlone } from '../audit/audit-service';
@@ -14,6 +14,7 @@ import { nextCode } from './run-code';
 import { runHistory } from './run-history';
 import { insertReadings, sha256ReadingRows } from './readings-bulk';
 import { parseReadingsInput, readingsToRows, type ReadingRow } from './run-document-mapper';
+import { overPressureFilter } from './run-filters';
 import { loadReadings, loadRunDocument } from './run-loader';
 import type { RunSetup } from './run-setup';
 import { submitProblems } from './submit-checklist';
@@ -40,6 +41,8 @@ export class RunsService {
     if (query.project !== undefined) filters.push(eq(runs.projectId, query.project));
     if (query.author !== undefined) filters.push(eq(runs.authorId, query.author));
     if (query.mine === 'true') filters.push(eq(runs.authorId, person.id));
+    if (query.others === 'true') filters.push(ne(runs.authorId, person.id));
+    if (query.safety === 'over-pressure') filters.push(overPressureFilter());
     if (query.from) filters.push(sql`${runs.runDate} >= ${query.from}`);
     if (query.to) filters.push(sql`${runs.runDate} <= ${query.to}`);
     const where = filters.length ? and(...filters) : undefined;

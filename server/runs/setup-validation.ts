@@ -168,7 +168,9 @@ export function setupProblems(setup: unknown): FieldError[] {
   if (setup['apparatus'] !== undefined && c.object(setup['apparatus'], 'setup.apparatus', ['name', ...Object.keys(APPARATUS_KINDS)])) {
     const app = setup['apparatus'] as Record<string, unknown>;
     c.text(app['name'], 'setup.apparatus.name');
-    for (const [key, kind] of Object.entries(APPARATUS_KINDS)) if (app[key] !== undefined) c.quantity(app[key], `setup.apparatus.${key}`, kind);
+    for (const [key, kind] of Object.entries(APPARATUS_KINDS)) if (app[key] !== undefined) c.quantity(app[key], `setup.apparatus.${key}`, kind, key === 'ratedPressure' ? ['reference'] : []);
+    const reference = isObject(app['ratedPressure']) ? app['ratedPressure']['reference'] : undefined;
+    if (reference !== undefined && reference !== 'absolute' && reference !== 'gauge') c.add('setup.apparatus.ratedPressure.reference', 'must be "absolute" or "gauge"');
   }
   if (setup['apparatusSource'] !== undefined && setup['apparatusSource'] !== 'register' && setup['apparatusSource'] !== 'run') c.add('setup.apparatusSource', 'must be "register" or "run"');
   if (setup['instruments'] !== undefined) checkInstruments(c, setup['instruments']);

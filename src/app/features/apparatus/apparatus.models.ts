@@ -14,6 +14,8 @@ export interface Apparatus {
   heatLossCoefficientU: number | null;
   /** Highest working pressure the vessel is rated for, Pa. */
   ratedPressure: number | null;
+  /** Whether the rating is absolute or gauge (above the barometric pressure of each run). */
+  ratedPressureReference: 'absolute' | 'gauge';
   /** Piston bore, m. */
   bore: number | null;
   /** Fixed internal volume, m³. */

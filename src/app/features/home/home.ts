@@ -29,6 +29,7 @@ const QUEUE_ICONS: Readonly<Record<string, string>> = {
   'runs-waiting': 'hourglass_top',
   people: 'group',
   'locked-accounts': 'lock_person',
+  'over-pressure': 'compress',
 };
 
 @Component({

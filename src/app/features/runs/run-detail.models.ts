@@ -94,6 +94,8 @@ export interface QualityFlag {
   code: string;
   reading: number | null;
   message: string;
+  /** On the closing line of a code listed only in part: how many more readings raise it. */
+  more?: number;
 }
 
 /** A diagnostic hint from the engine. */

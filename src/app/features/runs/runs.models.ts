@@ -43,6 +43,10 @@ export interface RunQuery {
   author: number | null;
   /** Only the signed-in person's own runs. */
   mine: boolean;
+  /** Only runs written by others (a reviewer's queue). */
+  others: boolean;
+  /** Only runs whose readings went above the vessel's rated pressure. */
+  safety: 'over-pressure' | null;
   /** Run dates, YYYY-MM-DD, inclusive. */
   from: string | null;
   to: string | null;

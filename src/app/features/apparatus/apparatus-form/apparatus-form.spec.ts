@@ -16,6 +16,7 @@ const pistonCell: Apparatus = {
   heatLossCoefficient: 0.045,
   heatLossCoefficientU: 0.01,
   ratedPressure: 1_000_000,
+  ratedPressureReference: 'gauge',
   bore: 0.05,
   fixedVolume: null,
   notes: 'Relief valve set to 900 kPa.',
@@ -79,7 +80,7 @@ describe('ApparatusForm', () => {
     type('Tag', 'VS-2');
     type('Name', 'Rigid vessel VS-2');
     type('Kind', 'vessel');
-    type('Rated pressure (absolute)', '1500');
+    type('Rated pressure', '1500');
     type('Piston bore', '32.5');
     type('Fixed volume', '1.2');
     type('Heat capacity', '410');
@@ -97,6 +98,7 @@ describe('ApparatusForm', () => {
       heatLossCoefficient: null,
       heatLossCoefficientU: null,
       ratedPressure: 1_500_000,
+      ratedPressureReference: 'absolute',
       bore: 0.0325,
       fixedVolume: 0.0012,
       notes: '',
@@ -108,7 +110,8 @@ describe('ApparatusForm', () => {
 
   it('shows a stored record in kPa, mm and L, and puts it back in SI with the unit switched to bar', async () => {
     await open(pistonCell);
-    expect(input('Rated pressure (absolute)').value).toBe('1000');
+    expect(input('Rated pressure').value).toBe('1000');
+    expect(page().textContent).toContain('Gauge (above the barometric pressure)');
     expect(input('Piston bore').value).toBe('50');
 
     page().querySelector<HTMLElement>('.unit .mat-mdc-select-trigger')?.click();
@@ -117,7 +120,7 @@ describe('ApparatusForm', () => {
       .find((o) => o.textContent?.trim() === 'bar')
       ?.click();
     await fixture.whenStable();
-    expect(input('Rated pressure (absolute)').value).toBe('10');
+    expect(input('Rated pressure').value).toBe('10');
 
     await submit();
     const request = httpTesting.expectOne('/api/apparatus/1');
@@ -131,6 +134,7 @@ describe('ApparatusForm', () => {
       heatLossCoefficient: 0.045,
       heatLossCoefficientU: 0.01,
       ratedPressure: 1_000_000,
+      ratedPressureReference: 'gauge',
       bore: 0.05,
       fixedVolume: null,
       notes: 'Relief valve set to 900 kPa.',

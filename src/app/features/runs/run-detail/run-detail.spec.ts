@@ -150,8 +150,8 @@ describe('RunDetail', () => {
     const over = {
       ...result,
       flags: [
-        { code: 'ABOVE_RATED_PRESSURE', reading: 2, message: 'Reading 2 reaches 1.05e+6 Pa, above the apparatus\'s rated 1e+6 Pa.' },
-        { code: 'ABOVE_RATED_PRESSURE', reading: 3, message: 'Reading 3 reaches 1.02e+6 Pa, above the apparatus\'s rated 1e+6 Pa.' },
+        { code: 'ABOVE_RATED_PRESSURE', reading: 2, message: "Reading 2 reaches 1050 kPa absolute, above the vessel's rated 10 bar absolute; stay within the vessel's rating and the lab's safety review." },
+        { code: 'ABOVE_RATED_PRESSURE', reading: 3, message: "Reading 3 reaches 1020 kPa absolute, above the vessel's rated 10 bar absolute; stay within the vessel's rating and the lab's safety review." },
       ],
     } as BalanceResult;
     httpTesting.expectOne('/api/runs/2').flush(run);
@@ -162,8 +162,11 @@ describe('RunDetail', () => {
     const alert = page().querySelector('aside.pressure-alert[role="alert"]');
     const text = alert?.textContent?.replace(/\s+/g, ' ') ?? '';
     expect(text).toContain('Safety alert: above the rated pressure');
-    expect(text).toContain('2 readings of this run went above the rated pressure of Piston cell PC-3 (10 bar, absolute)');
-    expect(text).toContain('Reading 2 reaches');
+    expect(text).toContain('2 readings of this run went above the rated pressure of Piston cell PC-3');
+    expect(text).toContain("Reading 2 reaches 1050 kPa absolute, above the vessel's rated 10 bar absolute.");
+    // said once, in kPa: neither the SI figures nor the flag's closing advice beside the alert's own
+    expect(text).not.toMatch(/\d Pa\b/);
+    expect(text).not.toContain("stay within the vessel's rating");
     expect(text).toContain("Local codes and the lab's licensed safety practice take precedence");
     // it is not the ordinary caution banner
     expect(alert?.classList.contains('safety')).toBe(false);

@@ -147,10 +147,11 @@ export class RunDetail {
     }
     const run = this.run();
     const peak = run?.series?.P?.length ? Math.max(...run.series.P) / 1e3 : null;
+    // The flag already says the reading and the rating in kPa with their reference; its closing advice is the paragraph below.
+    const first = over[0].message.split(';')[0].trim();
     return {
-      count: over.length,
-      first: over[0].message,
-      rated: run?.setup.apparatus?.ratedPressure ?? null,
+      count: over.reduce((n, flag) => n + (flag.reading !== null ? 1 : (flag.more ?? 0)), 0),
+      first: first.endsWith('.') ? first : `${first}.`,
       apparatus: run?.setup.apparatus?.name ?? 'the vessel',
       peak,
     };

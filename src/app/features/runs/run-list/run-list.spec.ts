@@ -58,10 +58,19 @@ describe('RunList', () => {
     ]);
   });
 
-  it('leaves out filters that are garbled: a bad verdict, a non-numeric project, a date that is not a date', async () => {
-    await harness.navigateByUrl('/runs?verdict=great&project=abc&from=yesterday&mine=yes');
+  it("passes on the reviewer's and the safety tiles' filters (others, safety) and shows each as a box to clear", async () => {
+    await harness.navigateByUrl('/runs?state=submitted&others=true&safety=over-pressure');
     const params = expectList().request.params;
-    expect(['verdict', 'project', 'from', 'mine'].map((k) => params.has(k))).toEqual([false, false, false, false]);
+    expect(['state', 'others', 'safety'].map((k) => params.get(k))).toEqual(['submitted', 'true', 'over-pressure']);
+    const text = (harness.routeNativeElement as HTMLElement).textContent ?? '';
+    expect(text).toContain('Only runs written by others');
+    expect(text).toContain('Only runs above the rated pressure');
+  });
+
+  it('leaves out filters that are garbled: a bad verdict, a non-numeric project, a date that is not a date', async () => {
+    await harness.navigateByUrl('/runs?verdict=great&project=abc&from=yesterday&mine=yes&safety=hot');
+    const params = expectList().request.params;
+    expect(['verdict', 'project', 'from', 'mine', 'safety'].map((k) => params.has(k))).toEqual([false, false, false, false, false]);
   });
 
   it('re-reads the page quietly while a submitted run waits for its check, and announces the verdict when it comes', async () => {

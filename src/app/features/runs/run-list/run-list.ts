@@ -26,7 +26,8 @@ import { RUN_STATE_LABELS, RUN_STATES, RunPage, RunQuery, RunSort, RunState } fr
 import { RUN_AUTHORS } from '../run-detail.models';
 
 const DEFAULT_QUERY: RunQuery = {
-  page: 1, pageSize: 25, state: null, verdict: null, project: null, author: null, mine: false, from: null, to: null, sort: 'updatedAt', dir: 'desc',
+  page: 1, pageSize: 25, state: null, verdict: null, project: null, author: null, mine: false, others: false, safety: null,
+  from: null, to: null, sort: 'updatedAt', dir: 'desc',
 };
 const VERDICTS: readonly Verdict[] = ['closes', 'breaks', 'indeterminate'];
 const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/;
@@ -57,6 +58,8 @@ export function runQueryFrom(params: ParamMap): RunQuery {
     project: id('project'),
     author: id('author'),
     mine: params.get('mine') === 'true',
+    others: params.get('others') === 'true',
+    safety: params.get('safety') === 'over-pressure' ? 'over-pressure' : null,
     from: day('from'),
     to: day('to'),
     sort: sort && SORTS.includes(sort) ? sort : DEFAULT_QUERY.sort,
@@ -146,7 +149,7 @@ export class RunList {
   }
 
   /** Any other filter: one change at a time, back to the first page. */
-  protected filterBy(change: Partial<Pick<RunQuery, 'verdict' | 'project' | 'author' | 'mine' | 'from' | 'to'>>): void {
+  protected filterBy(change: Partial<Pick<RunQuery, 'verdict' | 'project' | 'author' | 'mine' | 'others' | 'safety' | 'from' | 'to'>>): void {
     this.list.update({ ...change, page: 1 });
   }
 

@@ -3,7 +3,7 @@ import { TestBed } from '@angular/core/testing';
 import { SafetyNotices } from './safety-notices';
 
 describe('SafetyNotices', () => {
-  function render(inputs: Partial<Record<'pressure' | 'heating' | 'ratedPressurePa' | 'highestPressurePa', unknown>>) {
+  function render(inputs: Partial<Record<'pressure' | 'heating' | 'ratedPressurePa' | 'ratedReference' | 'highestPressurePa', unknown>>) {
     const fixture = TestBed.createComponent(SafetyNotices);
     for (const [name, value] of Object.entries(inputs)) {
       fixture.componentRef.setInput(name, value);
@@ -16,9 +16,14 @@ describe('SafetyNotices', () => {
   it('shows the apparatus rating in kPa and bar when a pressure channel is recorded', () => {
     const root = render({ pressure: true, ratedPressurePa: 1_000_000, highestPressurePa: 850_000 });
     const note = root.querySelector('[role="note"][aria-label="Pressure safety"]');
-    expect(note?.textContent).toContain('Piston cell PC-3: 1,000 kPa (10 bar)');
+    expect(note?.textContent).toContain('Piston cell PC-3: 1,000 kPa (10 bar) absolute.');
     expect(root.querySelector('[role="alert"]')).toBeNull();
     expect(root.textContent).toContain("your lab's own safety review take precedence");
+  });
+
+  it('says when the rating is a gauge rating', () => {
+    const root = render({ pressure: true, ratedPressurePa: 1_000_000, ratedReference: 'gauge', highestPressurePa: 100_000 });
+    expect(root.querySelector('[aria-label="Pressure safety"]')?.textContent).toContain('1,000 kPa (10 bar) gauge.');
   });
 
   it('warns once a reading passes 90 % of the rating, with the reading and its share', () => {

@@ -21,7 +21,7 @@ export const RATED_PRESSURE_WARNING = 0.9;
           <strong>Pressure.</strong>
           @if (ratedPressurePa(); as rated) {
             Stay within the rated pressure of {{ apparatusName() }}:
-            {{ rated / 1000 | number: '1.0-1' }} kPa ({{ rated / 100000 | number: '1.0-2' }} bar).
+            {{ rated / 1000 | number: '1.0-1' }} kPa ({{ rated / 100000 | number: '1.0-2' }} bar) {{ ratedReference() }}.
           } @else {
             Stay within the rated pressure of the vessel; this apparatus has no rating on record.
           }
@@ -101,6 +101,8 @@ export class SafetyNotices {
   readonly apparatusName = input('the apparatus');
   /** Rated pressure of the apparatus in Pa, when known. */
   readonly ratedPressurePa = input<number | null>(null);
+  /** Whether the rating is absolute or gauge (above the barometric pressure). */
+  readonly ratedReference = input<'absolute' | 'gauge'>('absolute');
   /** Highest pressure reading in Pa, as entered (gauge or absolute); the stricter reading of a gauge rating. */
   readonly highestPressurePa = input<number | null>(null);
 
