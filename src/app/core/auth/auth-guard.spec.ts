@@ -19,7 +19,11 @@ describe('authGuard and roleGuard on the app routes', () => {
     httpTesting = TestBed.inject(HttpTestingController);
   });
 
-  afterEach(() => httpTesting.verify());
+  afterEach(() => {
+    // The sign-in page asks whether the demo lab is loaded; these specs are about where it is reached.
+    httpTesting.match('/api/health');
+    httpTesting.verify();
+  });
 
   function answerMe(role: Role | null): void {
     TestBed.inject(Auth).restore().subscribe();

@@ -26,7 +26,11 @@ describe('errorInterceptor', () => {
       .flush({ person: { id: 4, email: 'quality@lab.test', name: 'Ada Kim', role: 'quality' } });
   });
 
-  afterEach(() => httpTesting.verify());
+  afterEach(() => {
+    // The sign-in page asks whether the demo lab is loaded; these specs are about where it is reached.
+    httpTesting.match('/api/health');
+    httpTesting.verify();
+  });
 
   it('sends the person back to sign-in when the session ends mid-work, and drops them', async () => {
     const harness = await RouterTestingHarness.create();

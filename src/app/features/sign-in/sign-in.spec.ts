@@ -6,7 +6,7 @@ import { RouterTestingHarness } from '@angular/router/testing';
 
 import { routes } from '../../app.routes';
 import { Auth } from '../../core/auth/auth';
-import { safeReturnUrl } from './sign-in';
+import { SignIn, safeReturnUrl } from './sign-in';
 
 describe('SignIn', () => {
   let httpTesting: HttpTestingController;
@@ -25,6 +25,8 @@ describe('SignIn', () => {
     httpTesting.expectOne('/api/auth/me').flush({ status: 401 }, { status: 401, statusText: 'Unauthorized' });
     harness = await RouterTestingHarness.create();
     await harness.navigateByUrl('/sign-in?returnUrl=%2Fruns%3Fstate%3Dsubmitted');
+    httpTesting.expectOne('/api/health').flush({ status: 'ok', db: 'ok', demoLab: true });
+    await harness.fixture.whenStable();
   });
 
   afterEach(() => httpTesting.verify());
@@ -62,6 +64,17 @@ describe('SignIn', () => {
     expect(labels).toEqual(['Email', 'Password']);
     expect(page().querySelector('input[type="email"]')?.getAttribute('autocomplete')).toBe('username');
     expect(page().textContent).toContain('Demo lab: see the README for demo sign-ins.');
+  });
+
+  it('says nothing of a demo lab when the server has none loaded', async () => {
+    // A second sign-in page beside the routed one asks again, and hears no.
+    const other = TestBed.createComponent(SignIn);
+    other.detectChanges();
+    httpTesting.expectOne('/api/health').flush({ status: 'ok', db: 'ok', demoLab: false });
+    await other.whenStable();
+    const text = (other.nativeElement as HTMLElement).textContent ?? '';
+    expect(text).toContain('Sign in');
+    expect(text).not.toContain('Demo lab');
   });
 
   it('sends the email trimmed and the password as typed', async () => {

@@ -1,4 +1,6 @@
+import { HttpClient } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -6,6 +8,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router } from '@angular/router';
+import { catchError, map, of } from 'rxjs';
 
 import { Auth } from '../../core/auth/auth';
 import { ProblemDetails } from '../../core/http/problem-details';
@@ -45,6 +48,14 @@ export class SignIn {
   protected readonly busy = signal(false);
   protected readonly problem = signal<ProblemDetails | null>(null);
   protected readonly passwordShown = signal(false);
+  /** The README's demo sign-ins are mentioned only while the invented demo lab is loaded. */
+  protected readonly demoLab = toSignal(
+    inject(HttpClient).get<{ demoLab?: boolean }>('/api/health').pipe(
+      map((health) => health.demoLab === true),
+      catchError(() => of(false)),
+    ),
+    { initialValue: false },
+  );
 
   protected togglePasswordShown(): void {
     this.passwordShown.update((shown) => !shown);
