@@ -202,6 +202,18 @@ describe('a quality officer', () => {
       await page.goto(path);
       await checkScreen(page, name);
     }
+    // The register form asks whether the rating is absolute or gauge.
+    await page.goto('/apparatus');
+    await page.getByRole('button', { name: 'Add apparatus' }).click();
+    const form = page.getByRole('dialog');
+    await form.getByText('The rating is').waitFor();
+    for (const width of [1366, 390]) {
+      await page.setViewportSize({ width, height: width === 390 ? 844 : 900 });
+      expect(await seriousViolations(page)).toEqual([]);
+      await screenshot(page, `apparatus-form-reference-${width}`);
+    }
+    await page.setViewportSize({ width: 1366, height: 900 });
+    await page.keyboard.press('Escape');
     // The safety tile counts the runs over their rated pressure (the technician's CO₂ run above is one) and links to them.
     await page.goto('/home');
     const tile = page.getByRole('link', { name: /Runs above the rated pressure/ });

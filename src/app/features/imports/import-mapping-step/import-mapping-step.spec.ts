@@ -6,6 +6,7 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 
 import { SAMPLE_PREVIEW as PREVIEW } from '../import-preview-sample';
 import { ImportMapping, ImportPreview } from '../imports.models';
+import { Confirmation } from '../../../shared/confirmation/confirmation';
 import { ImportMappingStep } from './import-mapping-step';
 
 describe('ImportMappingStep', () => {
@@ -46,6 +47,22 @@ describe('ImportMappingStep', () => {
     expect(errorRows).toEqual([expect.stringMatching(/^5\s*T\/°C\s*text "warm" in a numeric column/)]);
     expect(el.textContent).toContain('formulas: cached values used');
     expect(el.querySelectorAll('table.rows tbody tr')).toHaveLength(2);
+  });
+
+  it('saves the column map under a name and confirms it visibly', async () => {
+    const { fixture, el } = await setUp();
+    const shown = jest.spyOn(TestBed.inject(Confirmation), 'show');
+    const name = el.querySelector<HTMLInputElement>('input[placeholder^="e.g. Bench logger"]')!;
+    name.value = 'Bench logger BL-4';
+    name.dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    Array.from(el.querySelectorAll('button')).find((b) => b.textContent?.includes('Save column map'))!.click();
+    const req = httpTesting.expectOne('/api/imports/column-maps');
+    expect(req.request.method).toBe('POST');
+    expect(req.request.body.name).toBe('Bench logger BL-4');
+    req.flush({ id: 4, name: 'Bench logger BL-4', headers: [], mapping: req.request.body.mapping });
+    await fixture.whenStable();
+    expect(shown).toHaveBeenCalledWith('Column map "Bench logger BL-4" saved for the next file from this logger.');
   });
 
   it('changes a unit, asks the server to check every row, and shows the new summary', async () => {

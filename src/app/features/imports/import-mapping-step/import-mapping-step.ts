@@ -24,6 +24,7 @@ import {
   UNITS_BY_CHANNEL,
   UNIT_LABELS,
 } from '../imports.models';
+import { Confirmation } from '../../../shared/confirmation/confirmation';
 
 /** Step 2: what each column holds and in which unit; the first rows, the summary and every row error. */
 @Component({
@@ -36,6 +37,7 @@ import {
 export class ImportMappingStep {
   private readonly api = inject(ImportsApi);
   private readonly announcer = inject(LiveAnnouncer);
+  private readonly confirmation = inject(Confirmation);
 
   readonly preview = input.required<ImportPreview>();
   /** The mapping as chosen so far (null while something is missing). */
@@ -125,7 +127,7 @@ export class ImportMappingStep {
       next: (saved) => {
         this.savedMaps.update((maps) => [...maps, saved]);
         this.mapName.set('');
-        this.announcer.announce(`Column map "${saved.name}" saved for the next file from this logger.`);
+        this.confirmation.show(`Column map "${saved.name}" saved for the next file from this logger.`);
       },
       error: (error: unknown) => this.problem.set(toProblem(error)),
     });

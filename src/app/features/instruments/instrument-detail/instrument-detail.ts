@@ -1,4 +1,3 @@
-import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { DatePipe, DecimalPipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -25,6 +24,7 @@ import { CalibrationStatusChip } from '../../../shared/calibration-status/calibr
 import { CalibrationForm, CalibrationFormData } from '../calibration-form/calibration-form';
 import { InstrumentsApi } from '../instruments-api';
 import { CalibrationRecord, InstrumentDetail as Detail } from '../instruments.models';
+import { Confirmation } from '../../../shared/confirmation/confirmation';
 
 /** One instrument with its calibration history, newest first. */
 @Component({
@@ -48,7 +48,7 @@ export class InstrumentDetail {
   private readonly api = inject(InstrumentsApi);
   private readonly auth = inject(Auth);
   private readonly dialog = inject(MatDialog);
-  private readonly announcer = inject(LiveAnnouncer);
+  private readonly confirmation = inject(Confirmation);
   private readonly destroyRef = inject(DestroyRef);
 
   /** Route parameter `:id`. */
@@ -82,10 +82,7 @@ export class InstrumentDetail {
       .afterClosed()
       .subscribe((added) => {
         if (added) {
-          void this.announcer.announce(
-            `Calibration ${added.certificate} added; next due ${added.dueOn}.`,
-            'polite',
-          );
+          this.confirmation.show(`Calibration ${added.certificate} added; next due ${added.dueOn}.`);
           this.load(instrument.id);
         }
       });

@@ -7,6 +7,7 @@ import { RouterTestingHarness } from '@angular/router/testing';
 import { routes } from '../../../app.routes';
 import { Auth } from '../../../core/auth/auth';
 import { PersonRecord } from '../people.models';
+import { Confirmation } from '../../../shared/confirmation/confirmation';
 
 const inAnHour = new Date(Date.now() + 3_600_000).toISOString();
 const anHourAgo = new Date(Date.now() - 3_600_000).toISOString();
@@ -81,6 +82,23 @@ describe('PeopleList', () => {
 
     expect(unlockButtons()).toEqual([]);
     expect(rowOf('Lee Park').textContent).toContain('Open');
+  });
+
+  it('changes a role through the menu and confirms it visibly', async () => {
+    const shown = jest.spyOn(TestBed.inject(Confirmation), 'show');
+    rowOf('Mo Chen').querySelector<HTMLButtonElement>('button[aria-label="Change Mo Chen"]')?.click();
+    await harness.fixture.whenStable();
+    const item = (text: string) =>
+      Array.from(document.querySelectorAll<HTMLButtonElement>('[mat-menu-item], .mat-mdc-menu-item')).find((b) => b.textContent?.includes(text));
+    item('Change role')?.click();
+    await harness.fixture.whenStable();
+    item('Technician')?.click();
+    const patch = httpTesting.expectOne('/api/people/2');
+    expect(patch.request.body).toEqual({ role: 'technician' });
+    patch.flush({ ...people[2], role: 'technician' });
+    await harness.fixture.whenStable();
+    httpTesting.expectOne('/api/people').flush({ items: people });
+    expect(shown).toHaveBeenCalledWith('Mo Chen is now Technician.');
   });
 
   it("shows the server's refusal when a change is not allowed", async () => {

@@ -17,6 +17,7 @@ import { PasswordReset } from '../password-reset/password-reset';
 import { PeopleApi } from '../people-api';
 import { PersonChange, PersonRecord } from '../people.models';
 import { PersonForm } from '../person-form/person-form';
+import { Confirmation } from '../../../shared/confirmation/confirmation';
 
 @Component({
   selector: 'qw-people-list',
@@ -37,6 +38,7 @@ import { PersonForm } from '../person-form/person-form';
 export class PeopleList {
   private readonly api = inject(PeopleApi);
   private readonly announcer = inject(LiveAnnouncer);
+  private readonly confirmation = inject(Confirmation);
   private readonly dialog = inject(MatDialog);
   private readonly destroyRef = inject(DestroyRef);
   private readonly auth = inject(Auth);
@@ -113,7 +115,7 @@ export class PeopleList {
   }
 
   private done(said: string): void {
-    void this.announcer.announce(said, 'polite');
+    this.confirmation.show(said);
     this.load(false);
   }
 

@@ -26,6 +26,7 @@ import { gammaFor } from './pv-curves';
 import { ReadingsTable } from './readings-table';
 import { RunHistory } from './run-history';
 import { TimeCharts } from './time-charts';
+import { Confirmation } from '../../../shared/confirmation/confirmation';
 
 const STATE_ICONS: Readonly<Record<RunState, string>> = {
   draft: 'edit_note',
@@ -81,6 +82,7 @@ export class RunDetail {
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
   private readonly announcer = inject(LiveAnnouncer);
+  private readonly confirmation = inject(Confirmation);
   private readonly readingsTable = viewChild(ReadingsTable);
   private readonly document = inject(DOCUMENT);
   private readonly reload$ = new BehaviorSubject<void>(undefined);
@@ -263,7 +265,7 @@ export class RunDetail {
       .afterClosed()
       .subscribe((done: ReviewAction | undefined) => {
         if (done) {
-          void this.announcer.announce(`Run ${run.code} ${DONE_WORDS[done]}. Your signature is recorded.`, 'polite');
+          this.confirmation.show(`Run ${run.code} ${DONE_WORDS[done]}. Your signature is recorded.`);
           this.reload$.next();
         }
       });
