@@ -8,6 +8,8 @@ import { DEFAULT_LOCKOUT } from './auth/password-attempts';
 
 /** The lab named in run documents when QWELL_LAB_NAME is unset: the invented demo lab's institution. */
 export const DEFAULT_LAB_NAME = 'Harrowgate Institute of Applied Thermophysics';
+/** The mail domain of the invented demo lab's people; /api/health reports whether any of them is active. */
+export const DEMO_DOMAIN = 'harrowgate-thermo.test';
 
 /** Everything the server reads from its environment, resolved once. */
 export interface Config {

@@ -2,10 +2,10 @@
  * The demo lab: an invented institution, its people and apparatus. Every name and number here is
  * made up for demonstration; none describes a real lab, person or instrument.
  */
-import { DEFAULT_LAB_NAME } from '../../server/config';
+import { DEFAULT_LAB_NAME, DEMO_DOMAIN } from '../../server/config';
 import type { Role } from '../schema';
 
-export const DEMO_DOMAIN = 'harrowgate-thermo.test';
+export { DEMO_DOMAIN };
 // The seed follows the server's default lab name (never the other way: server/ does not import db/seed).
 export const DEMO_INSTITUTION = DEFAULT_LAB_NAME;
 export const DEFAULT_DEMO_PASSWORD = 'qwell-demo-lab';

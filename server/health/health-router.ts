@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import type postgres from 'postgres';
-import { DEMO_DOMAIN } from '../../db/seed/demo-lab';
+import { DEMO_DOMAIN } from '../config';
 
 /**
  * Whether the database answers, and whether the invented demo lab is loaded (any of its people still
