@@ -3,9 +3,11 @@
 // has no standardization fields yet); the key steps are done in the browser: the quality officer signs the
 // standardization on the apparatus page and records a repair there, and the run pages and the investigator's
 // home show what follows.
-import type { APIRequestContext, Page } from 'playwright-core';
+import type { APIRequestContext, Locator, Page } from 'playwright-core';
+import { seriousViolations } from './support/axe';
 import { demoStandardizationReadings } from '../db/seed/demo-standardizations';
-import { openBrowser, screenshot, type Session } from './support/browser';
+import { join } from 'node:path';
+import { openBrowser, screenshot, SCREENSHOT_DIR, type Session } from './support/browser';
 import { signInAs } from './support/sign-in';
 import { DEFAULT_DEMO_PASSWORD } from '../db/seed/demo-lab';
 
@@ -32,6 +34,22 @@ async function api(page: Page, method: 'GET' | 'POST' | 'PUT', path: string, dat
   return body;
 }
 
+/**
+ * Screenshots at the two widths the screens are checked at, with no serious accessibility violation; the page
+ * scrolls inside its own container, so `focus` is scrolled into view first. Waits for the navigation's slide to end.
+ */
+async function screens(page: Page, name: string, focus?: Locator): Promise<void> {
+  for (const width of [1366, 390]) {
+    await page.setViewportSize({ width, height: width === 390 ? 844 : 900 });
+    await page.evaluate(() => Promise.all(document.getAnimations().filter((a) => a.effect?.getComputedTiming().iterations !== Infinity).map((a) => a.finished)));
+    const violations = await seriousViolations(page);
+    expect({ screen: name, width, violations }).toEqual({ screen: name, width, violations: [] });
+    if (focus) await focus.scrollIntoViewIfNeeded();
+    await screenshot(page, `${name}-${width}`);
+  }
+  await page.setViewportSize({ width: 1280, height: 800 });
+}
+
 const day = (offset: number) => new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10);
 
 async function waitForResult(page: Page, runId: number) {
@@ -53,7 +71,10 @@ describe('standardizing a bath calorimeter', () => {
     const bc1 = ((await api(quality.page, 'GET', '/api/apparatus')).items as Array<{ id: number; tag: string }>).find((a) => a.tag === 'BC-1')!;
     await quality.page.goto(`/apparatus/${bc1.id}`);
     await quality.page.getByRole('img', { name: /out of control: R-\d{4}-\d{4}/ }).waitFor();
-    await screenshot(quality.page, 'apparatus-bc1-control-chart');
+    await screens(quality.page, 'apparatus-bc1-control-chart', quality.page.getByRole('heading', { name: 'Control chart' }));
+    // Values with their standard uncertainty, u to two significant digits (GUM 7.2.6), never "± 0.000".
+    const inForce = await quality.page.getByText(/Fitted heat-loss coefficient h = /).textContent();
+    expect(inForce).toMatch(/h = \d+\.\d+ ± 0\.0*[1-9]\d? W\/K/);
     // The entry form offers a standardization run with its heat source.
     await technician.page.goto('/runs/new');
     await technician.page.getByRole('radio', { name: 'Calorimeter (no gas)' }).check();
@@ -97,7 +118,7 @@ describe('standardizing a bath calorimeter', () => {
     await q.getByLabel('Your password').fill(DEFAULT_DEMO_PASSWORD);
     await q.getByRole('button', { name: 'Sign standardization' }).click();
     await q.getByText(/in force from .*signed by Samir Castellanos/).waitFor();
-    await screenshot(q, 'standardization-signed');
+    await screens(q, 'standardization-signed', q.getByRole('heading', { name: 'Standardization in force' }));
     const overview = await api(q, 'GET', `/api/apparatus/${app.id}/standardizations`);
     expect(overview.current.runIds.sort()).toEqual([...ids].sort());
 
@@ -108,13 +129,26 @@ describe('standardizing a bath calorimeter', () => {
     expect(used.flags.map((f: { code: string }) => f.code)).not.toContain('STANDARDIZATION_DUE');
     await technician.page.goto(`/runs/${later}`);
     await technician.page.getByText('Standardization used').waitFor();
-    await technician.page.getByRole('heading', { name: 'Corrected temperature rise' }).scrollIntoViewIfNeeded();
-    await screenshot(technician.page, 'run-corrected-rise');
+    // The corrected rise is drawn on the run's one temperature chart: periods shaded, drift lines, ΔT_c marked.
+    const chart = technician.page.getByRole('img', { name: /fore-period to \d+ s, main period to \d+ s.*corrected rise is marked: corrected rise [\d.]+ ± [\d.]+ K/ });
+    await chart.waitFor();
+    expect(await technician.page.locator('qw-time-charts').count()).toBe(1);
+    await screens(technician.page, 'run-corrected-rise', technician.page.getByRole('heading', { name: 'Corrected temperature rise' }));
+    for (const width of [1366, 390]) {
+      await technician.page.setViewportSize({ width, height: 844 });
+      await chart.scrollIntoViewIfNeeded();
+      await chart.screenshot({ path: join(SCREENSHOT_DIR, `run-temperature-chart-rise-${width}.png`) });
+    }
+    await technician.page.setViewportSize({ width: 1280, height: 800 });
 
     // A repair recorded by the quality officer makes the next run flagged.
     await q.getByLabel('What was changed').fill('Immersion heater replaced after a repair');
     await q.getByRole('button', { name: 'Record change' }).click();
     await q.getByText(/Standardization due\./).waitFor();
+    // The chart restarts after the change: the six runs become a previous segment (ASTM D240 §8.1.1).
+    await q.getByText(/The chart restarted after the change of/).waitFor();
+    await q.getByRole('img', { name: /The chart restarted after the change of .*6 earlier runs are shown as a previous segment/ }).waitFor();
+    await screens(q, 'apparatus-after-change', q.getByRole('heading', { name: 'Control chart' }));
     const next = await record(day(0), 'measurement', 8);
     const flagged = await waitForResult(technician.page, next);
     expect(flagged.flags.find((f: { code: string }) => f.code === 'STANDARDIZATION_DUE')?.message).toMatch(/Immersion heater replaced after a repair/);

@@ -35,9 +35,13 @@ describe('the control chart restarts after a recorded apparatus change (ASTM D24
     expect(single.summary.breaks.slice(8).some((b) => b?.test === 1 || b?.test === 5 || b?.test === 6)).toBe(true);
   });
 
-  it('counts a run on the day of the change as after it, and keeps an empty current segment right after a change', () => {
+  it('puts a run of the change\'s day before it when it was entered before the change was recorded, and keeps an empty current segment right after a change', () => {
     const sameDay = segmentByChanges(points, [{ date: '2026-03-04', description: 'stirrer replaced' }], rule);
     expect(sameDay.map((s) => [s.start, s.end])).toEqual([[0, 6], [6, 14]]);
+    // Runs of 2026-03-04 entered at 09:00 and 15:00; the stirrer replaced and recorded at 12:00.
+    const entered = points.map((p, i) => ({ ...p, at: i === 7 ? '2026-03-04T15:00:00Z' : `${p.date}T09:00:00Z` }));
+    const noon = segmentByChanges(entered, [{ date: '2026-03-04', description: 'stirrer replaced', recordedAt: '2026-03-04T12:00:00Z' }], rule);
+    expect(noon.map((s) => [s.start, s.end])).toEqual([[0, 7], [7, 14]]);
     const fresh = segmentByChanges(points, [{ date: '2026-03-20', description: 'thermometer replaced' }, repair], rule);
     expect(fresh.map((s) => [s.start, s.end, s.current])).toEqual([[0, 8, false], [8, 14, false], [14, 14, true]]);
     expect(fresh[2].summary.chart).toBeNull();

@@ -5,9 +5,21 @@
 import { summariseSeries, type AcceptanceRule, type SeriesPoint, type SeriesSummary } from './control-chart';
 
 export interface SeriesChange {
-  /** ISO date the change was made; runs on or after it belong to the new segment (as the STANDARDIZATION_DUE flag reads it). */
+  /** ISO date the change was made: runs dated after it belong to the new segment, runs dated before it to the old one. */
   date: string;
   description: string;
+  /** When the change was recorded (ISO timestamp): a run of the same day entered before it was made on the old apparatus. */
+  recordedAt?: string;
+}
+
+/** A point of the series; `at` is when the run was entered (ISO timestamp), for runs on the day of a change. */
+export type SegmentPoint = SeriesPoint & { at?: string };
+
+/** Whether a run was made before a change: an earlier day, or the same day and entered before the change was recorded. */
+export function madeBefore(p: SegmentPoint, change: SeriesChange): boolean {
+  const day = p.date.slice(0, 10);
+  if (day !== change.date) return day < change.date;
+  return p.at !== undefined && change.recordedAt !== undefined && Date.parse(p.at) < Date.parse(change.recordedAt);
 }
 
 export interface Segment {
@@ -22,12 +34,13 @@ export interface Segment {
 }
 
 /**
- * Splits points in date order at the changes (any order) and summarises each segment. Segments left empty by two
+ * Splits points in date order (same-day points in the order they were entered) at the changes (any order) and
+ * summarises each segment. Segments left empty by two
  * changes with no run between them are dropped, except the current one, which is always returned (it may be empty
  * right after a change).
  */
-export function segmentByChanges(points: readonly SeriesPoint[], changes: readonly SeriesChange[], rule: AcceptanceRule): Segment[] {
-  const sorted = [...changes].sort((a, b) => a.date.localeCompare(b.date));
+export function segmentByChanges(points: readonly SegmentPoint[], changes: readonly SeriesChange[], rule: AcceptanceRule): Segment[] {
+  const sorted = [...changes].sort((a, b) => a.date.localeCompare(b.date) || (a.recordedAt ?? '').localeCompare(b.recordedAt ?? ''));
   const segments: Segment[] = [];
   let start = 0;
   const close = (change: SeriesChange | null, end: number, current: boolean) => {
@@ -37,7 +50,7 @@ export function segmentByChanges(points: readonly SeriesPoint[], changes: readon
   let opening: SeriesChange | null = null;
   for (const change of sorted) {
     let end = start;
-    while (end < points.length && points[end].date.slice(0, 10) < change.date) end++;
+    while (end < points.length && madeBefore(points[end], change)) end++;
     close(opening, end, false);
     opening = change;
   }

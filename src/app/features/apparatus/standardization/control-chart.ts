@@ -98,7 +98,9 @@ export class ControlChart {
         x: {
           type: 'linear', min: 0.5, max: Math.max(1, this.series().length) + 0.5,
           title: { display: true, text: 'run, in date order', color: this.colors.text },
-          ticks: { stepSize: 1, color: this.colors.text, callback: (v) => this.series()[Number(v) - 1]?.code ?? '' },
+          // One tick per run at its position (the axis starts at 0.5, so stepped ticks would fall between runs).
+          afterBuildTicks: (axis) => { axis.ticks = this.series().map((_, i) => ({ value: i + 1 })); },
+          ticks: { color: this.colors.text, callback: (v) => this.series()[Number(v) - 1]?.code ?? '' },
           grid: { color: this.colors.grid },
         },
         y: { type: 'linear', title: { display: true, text: 'energy equivalent ε / (J/K)', color: this.colors.text }, grid: { color: this.colors.grid }, ticks: { color: this.colors.text } },

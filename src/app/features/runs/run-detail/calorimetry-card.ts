@@ -25,7 +25,10 @@ import { CalorimetryResult, METHOD_LABEL } from '../calorimetry.models';
         <dt>Corrected rise (used: {{ label(rise.method) }})</dt>
         <dd><strong>{{ rise.corrected.value | withUncertainty: rise.corrected.u : 'K' : null }}</strong>
           @if (rise.uncertainty; as parts) {
-            <span class="parts">(drifts and reading scatter {{ parts.fit | number: '1.1-6' }} K; thermometer gain {{ parts.thermometerGain | number: '1.1-6' }} K)</span>
+            <span class="parts">
+              (u from the drift fits and reading scatter {{ parts.fit | number: '1.1-6' }} K;
+              @if (parts.thermometerGain > 0) { thermometer gain {{ parts.thermometerGain | number: '1.1-6' }} K) } @else { the thermometer states no gain error) }
+            </span>
           }
         </dd>
         <dt>{{ label(rise.alternative.method) }}</dt>
@@ -34,8 +37,7 @@ import { CalorimetryResult, METHOD_LABEL } from '../calorimetry.models';
           <dt>Newton's-law fit of the drifts</dt>
           <dd>
             k = {{ fit.k.value * 1e6 | withUncertainty: fit.k.u * 1e6 : '' : null }} × 10⁻⁶ 1/s,
-            convergence temperature {{ fit.convergenceTemperature.value | withUncertainty: fit.convergenceTemperature.u : 'K' : null }}
-            @if (fit.h; as h) { , h = k·C = {{ h.value | withUncertainty: h.u : 'W/K' : null }} }
+            convergence temperature {{ fit.convergenceTemperature.value | withUncertainty: fit.convergenceTemperature.u : 'K' : null }}@if (fit.h; as h) {, h = k·C = {{ h.value | withUncertainty: h.u : 'W/K' : null }}}
           </dd>
         }
         @if (result().energyEquivalent; as e) {
@@ -44,9 +46,8 @@ import { CalorimetryResult, METHOD_LABEL } from '../calorimetry.models';
         }
         @if (result().standardization; as s) {
           <dt>Standardization used</dt>
-          <dd>ε = {{ s.energyEquivalent.value | withUncertainty: s.energyEquivalent.u : 'J/K' : null }}
-            @if (s.heatLossApplied && s.heatLossCoefficient; as h) { and its fitted h = {{ h.value | withUncertainty: h.u : 'W/K' : null }} }
-            , in force from {{ s.effectiveFrom }}, signed by {{ s.signedBy }}
+          <dd>ε = {{ s.energyEquivalent.value | withUncertainty: s.energyEquivalent.u : 'J/K' : null }}@if (s.heatLossApplied && s.heatLossCoefficient; as h) { and its fitted h = {{ h.value | withUncertainty: h.u : 'W/K' : null }}},
+            in force from {{ s.effectiveFrom }}, signed by {{ s.signedBy }}
             @if (apparatusId(); as a) { (<a [routerLink]="['/apparatus', a]">series</a>) }</dd>
         }
       </dl>

@@ -37,6 +37,6 @@ describe('the corrected rise drawn on the temperature chart', () => {
   });
 
   it('labels the corrected rise the run uses, u to two significant digits (GUM 7.2.6)', () => {
-    expect(o.label).toBe('ΔT_c = 2.4873 ± 0.0012 K');
+    expect(o.label).toEqual(['corrected rise', '2.4873 ± 0.0012 K']);
   });
 });

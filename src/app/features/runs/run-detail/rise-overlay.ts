@@ -13,8 +13,8 @@ export interface RiseOverlay {
   afterLine: Point[];
   /** Vertical segment at b between the two extrapolated drift lines: its length is the corrected rise (Dickinson's construction). */
   riseSegment: Point[];
-  /** `ΔT_c = 1.2345 ± 0.0012 K`, u standard, the value the run uses. */
-  label: string;
+  /** Two lines, `corrected rise` and `1.2345 ± 0.0012 K` (u standard): the value the run uses. */
+  label: [string, string];
 }
 
 const onLine = (d: DriftLine, x: number): Point => ({ x, y: d.meanTemperature + d.rate * (x - d.meanTime) });
@@ -34,7 +34,7 @@ export function riseOverlay(time: readonly number[], rise: TemperatureRise): Ris
     foreLine: [onLine(rise.drift.fore, t0), onLine(rise.drift.fore, b)],
     afterLine: [onLine(rise.drift.after, b), onLine(rise.drift.after, tN)],
     riseSegment: [onLine(rise.drift.fore, b), onLine(rise.drift.after, b)],
-    label: `ΔT_c = ${formatWithUncertainty(rise.corrected.value, rise.corrected.u, 'K', null)}`,
+    label: ['corrected rise', formatWithUncertainty(rise.corrected.value, rise.corrected.u, 'K', null)],
   };
 }
 
@@ -59,6 +59,8 @@ export function riseOverlayPlugin(overlay: () => RiseOverlay | null, colors: Ove
       ctx.font = font;
       ctx.textAlign = 'center';
       ctx.textBaseline = 'top';
+      ctx.lineWidth = 3;
+      ctx.strokeStyle = colors.halo;
       for (const band of o.bands) {
         const x0 = Math.max(a.left, x.getPixelForValue(band.from));
         const x1 = Math.min(a.right, x.getPixelForValue(band.to));
@@ -66,6 +68,7 @@ export function riseOverlayPlugin(overlay: () => RiseOverlay | null, colors: Ove
         ctx.fillStyle = band.main ? colors.main : colors.outer;
         ctx.fillRect(x0, a.top, x1 - x0, a.bottom - a.top);
         if (x1 - x0 > ctx.measureText(band.label).width + 6) {
+          ctx.strokeText(band.label, (x0 + x1) / 2, a.top + 4);
           ctx.fillStyle = colors.text;
           ctx.fillText(band.label, (x0 + x1) / 2, a.top + 4);
         }
@@ -83,16 +86,20 @@ export function riseOverlayPlugin(overlay: () => RiseOverlay | null, colors: Ove
       ctx.save();
       ctx.font = font;
       ctx.textBaseline = 'middle';
-      const width = ctx.measureText(o.label).width;
-      // Right of the segment when it fits, else left of it.
-      const right = px + 8 + width <= a.right;
-      ctx.textAlign = right ? 'left' : 'right';
-      const tx = right ? px + 8 : px - 8;
+      const width = Math.max(...o.label.map((line) => ctx.measureText(line).width));
+      // Right of the segment when it fits, else left of it, else centred on it within the plot (a narrow screen).
+      let tx: number;
+      if (px + 8 + width <= a.right) { ctx.textAlign = 'left'; tx = px + 8; }
+      else if (px - 8 - width >= a.left) { ctx.textAlign = 'right'; tx = px - 8; }
+      else { ctx.textAlign = 'center'; tx = Math.min(Math.max(px, a.left + width / 2), a.right - width / 2); }
       ctx.lineWidth = 4;
       ctx.strokeStyle = colors.halo;
-      ctx.strokeText(o.label, tx, py);
       ctx.fillStyle = colors.text;
-      ctx.fillText(o.label, tx, py);
+      o.label.forEach((line, i) => {
+        const ty = py + (i - 0.5) * 16;
+        ctx.strokeText(line, tx, ty);
+        ctx.fillText(line, tx, ty);
+      });
       ctx.restore();
     },
   };

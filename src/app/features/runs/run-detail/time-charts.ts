@@ -22,7 +22,8 @@ type Point = { x: number; y: number };
       <canvas baseChart type="line" [data]="data()" [options]="options()" [plugins]="plugins" role="img" [attr.aria-label]="summary()"></canvas>
     </div>
   `,
-  styles: `.chart { position: relative; height: 18rem; }`,
+  // A narrow screen stacks the legend: more height keeps the plot readable.
+  styles: `.chart { position: relative; height: 18rem; } @media (max-width: 40rem) { .chart { height: 26rem; } }`,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class TimeCharts {
@@ -68,7 +69,7 @@ export class TimeCharts {
     const rise = this.rise();
     if (!o || !rise) return base;
     const p = rise.periods;
-    return `${base}; fore-period to ${p.mainStart.toFixed(0)} s, main period to ${p.mainEnd.toFixed(0)} s, then the after-period; the fitted drift lines meet Dickinson's time ${p.dickinsonTime.toFixed(0)} s, where the corrected rise is marked: ${o.label}`;
+    return `${base}; fore-period to ${p.mainStart.toFixed(0)} s, main period to ${p.mainEnd.toFixed(0)} s, then the after-period; the fitted drift lines are extended to Dickinson's time ${p.dickinsonTime.toFixed(0)} s, where the corrected rise is marked: ${o.label.join(' ')}`;
   });
 
   protected readonly data = computed((): ChartData<'line', Point[]> => {
@@ -87,7 +88,7 @@ export class TimeCharts {
           ? [
             line('Fore-drift, fitted and extended', o.foreLine, [6, 3]),
             line('After-drift, fitted and extended', o.afterLine, [2, 3]),
-            { ...line('Corrected rise ΔT_c', o.riseSegment, []), borderWidth: 3, pointRadius: 4, pointStyle: 'line' as const, borderColor: this.colors.text, pointBorderColor: this.colors.text },
+            { ...line('Corrected rise (at Dickinson\'s time)', o.riseSegment, []), borderWidth: 3, pointRadius: 4, pointStyle: 'line' as const, borderColor: this.colors.text, pointBorderColor: this.colors.text },
           ]
           : []),
         ...(power
@@ -123,7 +124,7 @@ export class TimeCharts {
         // From 0 W to just above the heater's highest power: its level reads, not the noise on it.
         y1: { ...axis('Heater power (W)', 'right', power !== null), ...powerAxisRange(power ?? []) },
       },
-      plugins: { legend: { labels: { color: this.colors.text } } },
+      plugins: { legend: { labels: { color: this.colors.text, boxWidth: 24 } } },
     };
   });
 }
