@@ -19,6 +19,17 @@ async function signedIn(email: string, password: string): Promise<ApiClient> {
 }
 
 describe('GET /api/home', () => {
+  it('gives each role its own queue', async () => {
+    const keys = async (role: 'technician' | 'investigator' | 'quality' | 'admin') =>
+      (await (await clientAs(h.app, role)).get('/api/home')).body.queues.map((q: { key: string }) => q.key);
+    expect(await keys('technician')).toEqual(['my-drafts', 'returned-to-me', 'waiting-for-review']);
+    expect(await keys('investigator')).toEqual(['runs-to-review', 'breaking-balances', 'over-pressure']);
+    expect(await keys('quality')).toEqual(['calibrations-due', 'out-of-calibration', 'never-calibrated', 'runs-waiting', 'over-pressure']);
+    expect(await keys('admin')).toEqual(['people', 'locked-accounts']);
+    const review = (await (await clientAs(h.app, 'investigator')).get('/api/home')).body.queues[0];
+    expect(review.count).toBeGreaterThanOrEqual(3);
+  });
+
   it('counts an author\'s own drafts and links to exactly that list', async () => {
     const [{ id: projectId }] = await h.handle.db.select({ id: projects.id }).from(projects).where(eq(projects.code, 'GX'));
     const person = await makeThrowawayPerson(h.handle.db, 'home-author', 'technician', [projectId]);
