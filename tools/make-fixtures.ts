@@ -16,20 +16,20 @@ const quantise = (x: number, step: number) => Number((Math.round(x / step) * ste
 const noisy = (x: number, sd: number, step: number) => quantise(x + sd * rng.normal(), step);
 
 const INSTRUMENTS = {
-  pg2: { id: 'PG-2', name: 'pressure transducer', percentOfReading: 0.05, percentOfFullScale: 0.02, fullScale: 1000, resolution: 0.01, repeatability: 0.02, range: { min: 0, max: 1000 }, calibration: { U: 0.1, k: 2 }, calibrationDate: '2025-11-03', dueDate: '2026-11-03' },
-  pg5: { id: 'PG-5', name: 'gauge pressure transducer', percentOfReading: 0.05, percentOfFullScale: 0.02, fullScale: 2, resolution: 0.0001, repeatability: 0.0002, range: { min: -1, max: 2 }, calibration: { U: 0.0005, k: 2 }, calibrationDate: '2025-09-20', dueDate: '2026-09-20' },
-  pg7: { id: 'PG-7', name: 'pressure transducer', percentOfReading: 0.05, fullScale: 100, percentOfFullScale: 0.02, resolution: 0.001, repeatability: 0.002, range: { min: 0, max: 100 }, calibration: { U: 0.005, k: 2 }, calibrationDate: '2026-01-12', dueDate: '2027-01-12' },
-  ld1: { id: 'LD-1', name: 'piston displacement encoder', percentOfReading: 0.02, resolution: 0.01, range: { min: 0, max: 400 }, calibration: { U: 0.02, k: 2 }, calibrationDate: '2025-10-01', dueDate: '2026-10-01' },
-  tc7: { id: 'TC-7', name: 'Pt100', resolution: 0.01, repeatability: 0.01, calibration: { U: 0.05, k: 2 }, range: { min: 70, max: 500 }, calibrationDate: '2025-12-01', dueDate: '2026-12-01' },
-  tc9: { id: 'TC-9', name: 'Pt100', resolution: 0.001, repeatability: 0.002, calibration: { U: 0.01, k: 2 }, range: { min: 0, max: 50 }, calibrationDate: '2025-12-01', dueDate: '2026-12-01' },
-  tf3: { id: 'TF-3', name: 'thermistor probe (°F display)', resolution: 0.01, repeatability: 0.02, calibration: { U: 0.1, k: 2 }, range: { min: -40, max: 300 }, calibrationDate: '2025-08-15', dueDate: '2026-08-15' },
+  pg2: { id: 'PG-2', name: 'Pressure transducer, piston cell', percentOfReading: 0.05, percentOfFullScale: 0.02, fullScale: 1000, resolution: 0.01, repeatability: 0.02, range: { min: 0, max: 1000 }, calibration: { U: 0.1, k: 2 }, calibrationDate: '2025-11-03', dueDate: '2026-11-03' },
+  pg5: { id: 'PG-2', name: 'Pressure transducer, piston cell', percentOfReading: 0.05, percentOfFullScale: 0.02, fullScale: 2, resolution: 0.0001, repeatability: 0.0002, range: { min: -1, max: 2 }, calibration: { U: 0.0005, k: 2 }, calibrationDate: '2025-09-20', dueDate: '2026-09-20' },
+  pg7: { id: 'PG-2', name: 'Pressure transducer, piston cell', percentOfReading: 0.05, fullScale: 100, percentOfFullScale: 0.02, resolution: 0.001, repeatability: 0.002, range: { min: 0, max: 100 }, calibration: { U: 0.005, k: 2 }, calibrationDate: '2026-01-12', dueDate: '2027-01-12' },
+  ld1: { id: 'LD-3', name: 'Displacement encoder, piston PC-3', percentOfReading: 0.02, resolution: 0.01, range: { min: 0, max: 400 }, calibration: { U: 0.02, k: 2 }, calibrationDate: '2025-10-01', dueDate: '2026-10-01' },
+  tc7: { id: 'TC-7', name: 'Pt100 probe, piston cell', resolution: 0.01, repeatability: 0.01, calibration: { U: 0.05, k: 2 }, range: { min: 70, max: 500 }, calibrationDate: '2025-12-01', dueDate: '2026-12-01' },
+  tc9: { id: 'TC-9', name: 'Pt100 probe, bath calorimeter', resolution: 0.001, repeatability: 0.002, calibration: { U: 0.01, k: 2 }, range: { min: 0, max: 50 }, calibrationDate: '2025-12-01', dueDate: '2026-12-01' },
+  tf3: { id: 'TC-7', name: 'Pt100 probe, piston cell', resolution: 0.01, repeatability: 0.02, calibration: { U: 0.1, k: 2 }, range: { min: -40, max: 300 }, calibrationDate: '2025-08-15', dueDate: '2026-08-15' },
   // The meters' repeatability is the noise drawn below for their readings (their specification states it).
-  dm4: { id: 'DM-4', name: 'voltmeter', percentOfReading: 0.02, resolution: 0.001, repeatability: 0.0003, range: { min: -0.1, max: 30 }, calibration: { U: 0.002, k: 2 }, calibrationDate: '2025-07-01', dueDate: '2026-07-01' },
-  dm6: { id: 'DM-6', name: 'ammeter', percentOfReading: 0.05, resolution: 0.01, repeatability: 0.05, range: { min: -10, max: 3000 }, calibration: { U: 0.05, k: 2 }, calibrationDate: '2025-07-01', dueDate: '2026-07-01' },
+  dm4: { id: 'DV-4', name: 'Bench multimeter, heater voltage', percentOfReading: 0.02, resolution: 0.001, repeatability: 0.0003, range: { min: -0.1, max: 30 }, calibration: { U: 0.002, k: 2 }, calibrationDate: '2025-07-01', dueDate: '2026-07-01' },
+  dm6: { id: 'DA-5', name: 'Bench multimeter, heater current', percentOfReading: 0.05, resolution: 0.01, repeatability: 0.05, range: { min: -10, max: 3000 }, calibration: { U: 0.05, k: 2 }, calibrationDate: '2025-07-01', dueDate: '2026-07-01' },
 };
 
 function header(id: string, title: string, claimed: string, extra: Record<string, unknown> = {}) {
-  return { format: 'qwell.run', version: 1, id, title, lab: LAB, operator: 'M. Okonkwo-Reyes', runDate: '2026-03-14', process: { claimed, ...extra } };
+  return { format: 'qwell.run', version: 1, id, title, lab: LAB, operator: 'Lena Okonkwo', runDate: '2026-03-14', process: { claimed, ...extra } };
 }
 
 function write(name: string, doc: unknown): void {
@@ -97,10 +97,10 @@ function isothermal(): void {
     readings: {
       time: { unit: 's', values: t },
       pressure: { unit: 'kPa', reference: 'absolute', instrument: 'PG-2', values: p },
-      displacement: { unit: 'mm', instrument: 'LD-1', values: x },
+      displacement: { unit: 'mm', instrument: 'LD-3', values: x },
       temperature: { unit: 'degC', instrument: 'TC-7', values: temp },
-      voltage: { unit: 'V', instrument: 'DM-4', values: u },
-      current: { unit: 'mA', instrument: 'DM-6', values: i },
+      voltage: { unit: 'V', instrument: 'DV-4', values: u },
+      current: { unit: 'mA', instrument: 'DA-5', values: i },
     },
   });
 }
@@ -127,12 +127,12 @@ function adiabatic(): void {
     amount: { from: 'moles', value: 0.04, u: 0.0001 },
     ambient: { pressure: { value: 101.42, unit: 'kPa', u: 0.03 }, temperature: { value: 300, unit: 'K', u: 0.1 } },
     apparatus: pistonApparatus(),
-    instruments: [INSTRUMENTS.pg2, INSTRUMENTS.ld1, { ...INSTRUMENTS.tc7, id: 'TC-8', name: 'fine-wire thermocouple', range: { min: 70, max: 500 } }],
+    instruments: [INSTRUMENTS.pg2, INSTRUMENTS.ld1, { ...INSTRUMENTS.tc7, id: 'TC-7', name: 'Pt100 probe, piston cell', range: { min: 70, max: 500 } }],
     readings: {
       time: { unit: 's', values: t },
       pressure: { unit: 'kPa', reference: 'absolute', instrument: 'PG-2', values: p },
-      displacement: { unit: 'mm', instrument: 'LD-1', values: x },
-      temperature: { unit: 'K', instrument: 'TC-8', values: temp },
+      displacement: { unit: 'mm', instrument: 'LD-3', values: x },
+      temperature: { unit: 'K', instrument: 'TC-7', values: temp },
     },
   });
 }
@@ -161,11 +161,11 @@ function isobaric(): void {
     amount: { from: 'moles', value: n, u: 0.0002 },
     ambient: { pressure: { value: 101.42, unit: 'kPa', u: 0.03 }, temperature: { value: 295, unit: 'K', u: 0.1 } },
     apparatus: { name: 'Piston cell PC-3 (syringe scale)', heatLossCoefficient: { value: h, unit: 'W/K', u: 0.0005 } },
-    instruments: [INSTRUMENTS.pg5, { id: 'SV-1', name: 'syringe volume scale', resolution: 0.1, percentOfReading: 0.1 }, INSTRUMENTS.tc7,
-      { id: 'PM-2', name: 'heater power meter', percentOfReading: 0.1, resolution: 0.0001, calibration: { U: 0.0005, k: 2 } }],
+    instruments: [INSTRUMENTS.pg5, { id: 'SV-1', name: 'Syringe volume scale, piston cell', resolution: 0.1, percentOfReading: 0.1 }, INSTRUMENTS.tc7,
+      { id: 'PM-2', name: 'Heater power meter, piston cell', percentOfReading: 0.1, resolution: 0.0001, calibration: { U: 0.0005, k: 2 } }],
     readings: {
       time: { unit: 's', values: t },
-      pressure: { unit: 'bar', reference: 'gauge', instrument: 'PG-5', values: p },
+      pressure: { unit: 'bar', reference: 'gauge', instrument: 'PG-2', values: p },
       volume: { unit: 'mL', instrument: 'SV-1', values: v },
       temperature: { unit: 'K', instrument: 'TC-7', values: temp },
       power: { unit: 'W', instrument: 'PM-2', values: pw },
@@ -196,10 +196,10 @@ function isochoric(): void {
     instruments: [INSTRUMENTS.pg7, INSTRUMENTS.tf3, INSTRUMENTS.dm4, INSTRUMENTS.dm6],
     readings: {
       time: { unit: 's', values: t },
-      pressure: { unit: 'psi', reference: 'absolute', instrument: 'PG-7', values: p },
-      temperature: { unit: 'degF', instrument: 'TF-3', values: temp },
-      voltage: { unit: 'V', instrument: 'DM-4', values: u },
-      current: { unit: 'mA', instrument: 'DM-6', values: i },
+      pressure: { unit: 'psi', reference: 'absolute', instrument: 'PG-2', values: p },
+      temperature: { unit: 'degF', instrument: 'TC-7', values: temp },
+      voltage: { unit: 'V', instrument: 'DV-4', values: u },
+      current: { unit: 'mA', instrument: 'DA-5', values: i },
     },
   });
 }
@@ -233,11 +233,11 @@ function polytropic(): void {
     amount: { from: 'mass', mass: { value: 1.7604, unit: 'g', u: 0.001 } },
     ambient: { pressure: { value: 1.0142, unit: 'bar', u: 0.0003 }, temperature: { value: Ta, unit: 'K', u: 0.05 } },
     apparatus: pistonApparatus({ heatLossCoefficient: { value: Number(h.toPrecision(4)), unit: 'W/K', u: Number((0.01 * h).toPrecision(2)) } }),
-    instruments: [{ ...INSTRUMENTS.pg7, id: 'PG-8', fullScale: 10, resolution: 0.0001, repeatability: 0.0002, calibration: { U: 0.0005, k: 2 }, range: { min: 0, max: 10 } }, INSTRUMENTS.ld1, INSTRUMENTS.tc7],
+    instruments: [{ ...INSTRUMENTS.pg7, id: 'PG-2', fullScale: 10, resolution: 0.0001, repeatability: 0.0002, calibration: { U: 0.0005, k: 2 }, range: { min: 0, max: 10 } }, INSTRUMENTS.ld1, INSTRUMENTS.tc7],
     readings: {
       time: { unit: 's', values: ts },
-      pressure: { unit: 'bar', reference: 'absolute', instrument: 'PG-8', values: Ps.map((P) => noisy(P / 1e5, 0.0002, 0.0001)) },
-      displacement: { unit: 'mm', instrument: 'LD-1', values: xs.map((x) => noisy(x * 1000, 0.005, 0.01)) },
+      pressure: { unit: 'bar', reference: 'absolute', instrument: 'PG-2', values: Ps.map((P) => noisy(P / 1e5, 0.0002, 0.0001)) },
+      displacement: { unit: 'mm', instrument: 'LD-3', values: xs.map((x) => noisy(x * 1000, 0.005, 0.01)) },
       temperature: { unit: 'K', instrument: 'TC-7', values: Ts.map((T) => noisy(T, 0.01, 0.01)) },
     },
   });
@@ -269,8 +269,8 @@ function calorimetric(name: string, forgetLeak: boolean): void {
     readings: {
       time: { unit: 'iso', values: t },
       temperature: { unit: 'degC', instrument: 'TC-9', values: temp },
-      voltage: { unit: 'V', instrument: 'DM-4', values: u },
-      current: { unit: 'mA', instrument: 'DM-6', values: i },
+      voltage: { unit: 'V', instrument: 'DV-4', values: u },
+      current: { unit: 'mA', instrument: 'DA-5', values: i },
     },
   });
 }

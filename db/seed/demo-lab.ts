@@ -45,6 +45,7 @@ export const demoInstruments = [
   { tag: 'VB-2', name: 'Gas burette, Lab B', kind: 'volume', manufacturer: 'Harrowgate glass workshop', serialNumber: 'HGW-0317', unit: 'L', rangeMin: 0, rangeMax: 2, spec: { resolution: 0.001, percentOfReading: 0.2 } },
   { tag: 'DV-4', name: 'Bench multimeter, heater voltage', kind: 'voltage', manufacturer: 'Harrowgate electronics workshop', serialNumber: 'WI-5520', unit: 'V', rangeMin: 0, rangeMax: 60, spec: { percentOfReading: 0.05, resolution: 0.001 } },
   { tag: 'DA-5', name: 'Bench multimeter, heater current', kind: 'current', manufacturer: 'Harrowgate electronics workshop', serialNumber: 'WI-5521', unit: 'A', rangeMin: 0, rangeMax: 10, spec: { percentOfReading: 0.1, resolution: 0.0001 } },
+  { tag: 'PM-2', name: 'Heater power meter, piston cell', kind: 'power', manufacturer: 'Harrowgate electronics workshop', serialNumber: 'WI-5530', unit: 'W', rangeMin: 0, rangeMax: 100, spec: { percentOfReading: 0.1, resolution: 0.0001 } },
 ] as const;
 
 /** Calibration dates relative to the seeding day, so the demo always shows a spread of statuses. */
@@ -58,6 +59,7 @@ export const demoCalibrations: { tag: string; ageDays: number; validDays: number
   { tag: 'VB-2', ageDays: 150, validDays: 365, certificate: 'HIAT-CAL-2241', U: 0.002, k: 2 },
   { tag: 'DV-4', ageDays: 30, validDays: 365, certificate: 'HIAT-CAL-2330', U: 0.004, k: 2 },
   { tag: 'DA-5', ageDays: 30, validDays: 365, certificate: 'HIAT-CAL-2331', U: 0.0008, k: 2 },
+  { tag: 'PM-2', ageDays: 45, validDays: 365, certificate: 'HIAT-CAL-2325', U: 0.0005, k: 2 },
 ];
 
 export const demoApparatus = [

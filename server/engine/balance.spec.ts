@@ -147,7 +147,7 @@ describe('per-reading random parts: the aggregated linear term against brute-for
     doc.apparatus.pistonBore!.u = 0; // only the per-reading parts remain in u(W)
     const res = evaluateBalance(doc, { draws: 0 });
     const uP = Math.sqrt(0.01 ** 2 / 12 + 0.02 ** 2) * 1000; // PG-2: resolution 0.01 kPa, repeatability 0.02 kPa
-    const uX = (0.01 / Math.sqrt(12)) * 1e-3; // LD-1: resolution 0.01 mm
+    const uX = (0.01 / Math.sqrt(12)) * 1e-3; // LD-3: resolution 0.01 mm
     const area = pistonArea(0.08);
     const P0 = doc.readings.pressure!.values.map((p) => p * 1000);
     const V0 = doc.readings.displacement!.values.map((x) => 0.5e-3 + area * x * 1e-3);

@@ -73,7 +73,7 @@ describe('OUT_OF_RANGE', () => {
     doc.instruments[0].range.max = 15.5; // psi; the heated vessel passes it near the end
     const f = flagsOf(doc, 'OUT_OF_RANGE');
     expect(f.length).toBeGreaterThan(0);
-    expect(f[0].message).toMatch(/of PG-7 is .* psi, outside its range 0 to 15.5 psi/);
+    expect(f[0].message).toMatch(/of PG-2 is .* psi, outside its range 0 to 15.5 psi/);
     expect(doc.readings.pressure.values[f[0].reading! - 1]).toBeGreaterThan(15.5);
     expect(doc.readings.pressure.values[f[0].reading! - 2]).toBeLessThanOrEqual(15.5);
   });
