@@ -19,7 +19,23 @@ const describeChar = (s: string): string => {
   return c === 0 ? 'a NUL character (U+0000)' : `the control character U+${c.toString(16).toUpperCase().padStart(4, '0')}`;
 };
 
-const join = (path: string, key: string | number) => (typeof key === 'number' ? `${path}[${key}]` : path ? `${path}.${key}` : key);
+/** A field's name in messages: `a.b[3].c`. */
+export const joinField = (path: string, key: string | number) => (typeof key === 'number' ? `${path}[${key}]` : path ? `${path}.${key}` : key);
+
+/** The problem of a string value at `field`, if it holds a control character. */
+export function stringProblem(s: string, field: string): FieldError | null {
+  return CONTROL.test(s) ? { field, message: `${field} contains ${describeChar(s)}; remove it and send again` } : null;
+}
+
+/** The problem of a field name `key` (at `at`): a prototype key or a control character. */
+export function keyProblem(key: string, at: string): FieldError | null {
+  if (PROTOTYPE_KEYS.has(key)) return { field: at, message: `"${key}" is not a field name Qwell accepts` };
+  if (CONTROL.test(key)) return { field: at, message: `a field name contains ${describeChar(key)}` };
+  return null;
+}
+
+/** The problem of an object or array that starts deeper than MAX_JSON_DEPTH (at `field`). */
+export const depthProblem = (field: string): FieldError => ({ field, message: `the body is nested more than ${MAX_JSON_DEPTH} levels deep at ${field}; no Qwell request is` });
 
 /**
  * The problems of a parsed JSON value, walked without recursion (a body nested 10 000 deep must not
@@ -33,30 +49,28 @@ export function inputProblems(value: unknown, max = 20): FieldError[] {
     const { v, path, depth } = stack.pop()!;
     const field = path || '(body)';
     if (typeof v === 'string') {
-      if (CONTROL.test(v)) problems.push({ field, message: `${field} contains ${describeChar(v)}; remove it and send again` });
+      const problem = stringProblem(v, field);
+      if (problem) problems.push(problem);
       continue;
     }
     if (v === null || typeof v !== 'object') continue;
     if (depth >= MAX_JSON_DEPTH) {
-      problems.push({ field, message: `the body is nested more than ${MAX_JSON_DEPTH} levels deep at ${field}; no Qwell request is` });
+      problems.push(depthProblem(field));
       continue;
     }
     if (Array.isArray(v)) {
       for (let i = v.length - 1; i >= 0; i--) {
         const item: unknown = v[i];
         // Numbers are most of a large body (readings): skip them without a stack entry.
-        if (item !== null && (typeof item === 'object' || typeof item === 'string')) stack.push({ v: item, path: join(path, i), depth: depth + 1 });
+        if (item !== null && (typeof item === 'object' || typeof item === 'string')) stack.push({ v: item, path: joinField(path, i), depth: depth + 1 });
       }
       continue;
     }
     for (const key of Object.keys(v)) {
-      const at = join(path, key);
-      if (PROTOTYPE_KEYS.has(key)) {
-        problems.push({ field: at, message: `"${key}" is not a field name Qwell accepts` });
-        continue;
-      }
-      if (CONTROL.test(key)) {
-        problems.push({ field: at, message: `a field name contains ${describeChar(key)}` });
+      const at = joinField(path, key);
+      const problem = keyProblem(key, at);
+      if (problem) {
+        problems.push(problem);
         continue;
       }
       stack.push({ v: (v as Record<string, unknown>)[key], path: at, depth: depth + 1 });
@@ -65,12 +79,14 @@ export function inputProblems(value: unknown, max = 20): FieldError[] {
   return problems;
 }
 
+/** The 400 for a value with the problems above. */
+export const refusedInput = (problems: FieldError[], where = 'request') =>
+  badRequest(`The ${where} was refused: ${problems.slice(0, 3).map((p) => p.message).join('; ')}. Nothing was changed.`, problems);
+
 /** Throws a 400 naming the fields, when a value (a body, the query) has any of the problems above. */
 export function assertCleanInput(value: unknown, where = 'request'): void {
   const problems = inputProblems(value);
-  if (problems.length > 0) {
-    throw badRequest(`The ${where} was refused: ${problems.slice(0, 3).map((p) => p.message).join('; ')}. Nothing was changed.`, problems);
-  }
+  if (problems.length > 0) throw refusedInput(problems, where);
 }
 
 /**

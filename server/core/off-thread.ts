@@ -10,23 +10,49 @@ export interface OffThreadOptions {
   /** Heap of the worker in MB: past it the worker is stopped and the call rejects with outOfMemory(). */
   maxHeapMb?: number;
   outOfMemory?: () => Error;
-  /** Chunks fed to the task as an async iterable (its last argument), e.g. a request body as it arrives. */
+  /** Chunks fed to the task as an async iterable (its next-to-last argument), e.g. a request body as it arrives. */
   input?: AsyncIterable<Uint8Array>;
+  /**
+   * Values the task hands out before it ends, through `await emit(value)` (its last argument), in
+   * order. The task waits while `emitWindow` (default 2) values are not yet acknowledged by ack(),
+   * so that a slow consumer does not pile them up in memory.
+   */
+  onEmit?: (value: unknown, ack: () => void) => void;
+  emitWindow?: number;
+  /** Stops the worker; the call then rejects with the signal's reason. */
+  signal?: AbortSignal;
 }
 
 // The worker loads the task's TypeScript through tsx's require hook, as the server itself runs. A task
 // may throw an HttpProblem: it crosses the thread as its fields and is thrown again here, so the
-// answer is the 4xx the task meant. With `input`, chunks arrive as messages and end with null.
+// answer is the 4xx the task meant. With `input`, chunks arrive as messages and end with null; the
+// task's emit(value) posts { emitted: value } before its answer, and waits while `window` of them
+// are not acknowledged ({ ack: 1 } messages).
 const WORKER_SOURCE = `
 require('tsx/cjs');
 const { parentPort, workerData } = require('node:worker_threads');
 const { HttpProblem } = require(${JSON.stringify(join(__dirname, 'problem.ts'))});
 const task = require(workerData.module)[workerData.fn];
 let input;
+let unacked = 0;
+let acked = null;
+const emit = async (emitted) => {
+  parentPort.postMessage({ emitted });
+  unacked += 1;
+  while (unacked >= workerData.window) await new Promise((resolve) => { acked = resolve; });
+};
+const queue = [];
+let wake = null;
+parentPort.on('message', (chunk) => {
+  if (chunk !== null && !(chunk instanceof Uint8Array)) {
+    unacked -= 1;
+    if (acked) { acked(); acked = null; }
+    return;
+  }
+  queue.push(chunk);
+  if (wake) { wake(); wake = null; }
+});
 if (workerData.streamed) {
-  const queue = [];
-  let wake = null;
-  parentPort.on('message', (chunk) => { queue.push(chunk); if (wake) { wake(); wake = null; } });
   input = (async function* () {
     for (;;) {
       if (queue.length === 0) await new Promise((resolve) => { wake = resolve; });
@@ -37,7 +63,7 @@ if (workerData.streamed) {
   })();
 }
 Promise.resolve()
-  .then(() => task(...workerData.args, ...(workerData.streamed ? [input] : [])))
+  .then(() => task(...workerData.args, ...(workerData.streamed ? [input] : []), emit))
   .then((result) => parentPort.postMessage({ result }), (err) => parentPort.postMessage({
     problem: err instanceof HttpProblem ? { status: err.status, title: err.title, detail: err.detail, errors: err.errors, extra: err.extra } : undefined,
     message: String((err && err.stack) || err),
@@ -45,6 +71,7 @@ Promise.resolve()
 `;
 
 interface Answer<T> {
+  emitted?: unknown;
   result?: T;
   problem?: { status: number; title: string; detail: string; errors?: HttpProblem['errors']; extra?: Record<string, unknown> };
   message?: string;
@@ -58,7 +85,7 @@ interface Answer<T> {
 export function runOffThread<T>(modulePath: string, fn: string, args: unknown[], options: OffThreadOptions = {}): Promise<T> {
   const worker = new Worker(WORKER_SOURCE, {
     eval: true,
-    workerData: { module: modulePath, fn, args, streamed: options.input !== undefined },
+    workerData: { module: modulePath, fn, args, streamed: options.input !== undefined, window: options.emitWindow ?? 2 },
     ...(options.maxHeapMb ? { resourceLimits: { maxOldGenerationSizeMb: options.maxHeapMb } } : {}),
   });
   let settled = false;
@@ -74,8 +101,10 @@ export function runOffThread<T>(modulePath: string, fn: string, args: unknown[],
     const timer = options.timeoutMs !== undefined
       ? setTimeout(() => finish(options.timedOut?.() ?? new Error(`${fn} did not finish in ${options.timeoutMs} ms`)), options.timeoutMs)
       : undefined;
-    worker.once('message', (answer: Answer<T>) => {
-      if (answer.problem) {
+    worker.on('message', (answer: Answer<T>) => {
+      if ('emitted' in answer) {
+        if (!settled) options.onEmit?.(answer.emitted, () => settled || worker.postMessage({ ack: 1 }));
+      } else if (answer.problem) {
         const p = answer.problem;
         finish(new HttpProblem(p.status, p.title, p.detail, p.errors, p.extra ?? {}));
       } else if (answer.message !== undefined) {
@@ -88,6 +117,7 @@ export function runOffThread<T>(modulePath: string, fn: string, args: unknown[],
       finish(err.code === 'ERR_WORKER_OUT_OF_MEMORY' && options.outOfMemory ? options.outOfMemory() : err);
     });
     worker.once('exit', (code) => finish(new Error(`${fn}'s worker thread stopped with code ${code}`)));
+    options.signal?.addEventListener('abort', () => finish(options.signal!.reason instanceof Error ? options.signal!.reason : new Error(`${fn} was stopped`)), { once: true });
     if (options.input) void feed(worker, options.input, () => settled, (err) => finish(err));
   });
 }

@@ -2,8 +2,10 @@ import { eq, TransactionRollbackError } from 'drizzle-orm';
 import { readings, runs } from '../../db/schema';
 import { sha256Canonical } from '../engine/canonical';
 import { startHarness, type ApiHarness } from '../../testing/api-harness';
-import type { ReadingRow } from './run-document-mapper';
-import { BULK_FROM_ROWS, insertReadings, sha256ReadingRows } from './readings-bulk';
+import { readingsToRows, type ReadingRow, type ReadingsInput } from './run-document-mapper';
+import type { HttpProblem } from '../core/problem';
+import { BULK_FROM_ROWS, hashStoredReadings, insertReadingChunks, insertReadings, sha256ReadingRows } from './readings-bulk';
+import { CHUNK_ROWS, prepareReadings, type PreparedMessage, type ReadingsHeader } from './readings-prepare';
 import { loadReadings } from './run-loader';
 
 const row = (seq: number, over: Partial<ReadingRow> = {}): ReadingRow => ({
@@ -77,4 +79,73 @@ describe('insertReadings on the database', () => {
       if (!(e instanceof TransactionRollbackError)) throw e;
     });
   });
+});
+
+describe('prepareReadings (the PUT body read as columns) and its chunks stored', () => {
+  let h: ApiHarness;
+  beforeAll(async () => {
+    h = await startHarness();
+  });
+  afterAll(() => h.close());
+
+  const n = CHUNK_ROWS + 1234;
+  const input: ReadingsInput = {
+    time: { unit: 'min', values: Array.from({ length: n }, (_, i) => i / 60 + 1e-9 * i) },
+    channels: {
+      pressure: { unit: 'bar', reference: 'gauge', values: Array.from({ length: n }, (_, i) => (i % 11 === 0 ? null : 1.01325 + Math.sin(i) / 3)) },
+      temperature: { unit: 'degC', values: Array.from({ length: n }, (_, i) => (i === 7 ? -0 : 25 + i / 1e5)) },
+      current: { unit: 'mA', instrumentId: 4, values: Array.from({ length: n }, (_, i) => 250.5 + (i % 3)) },
+    },
+  };
+  const bodyOf = (body: object) => (async function* () {
+    const bytes = Buffer.from(JSON.stringify(body));
+    for (let i = 0; i < bytes.length; i += 9999) yield bytes.subarray(i, i + 9999);
+  })();
+
+  async function prepare(body: object) {
+    const messages: PreparedMessage[] = [];
+    const { sha256 } = await prepareReadings(bodyOf(body), (m) => {
+      messages.push(m);
+    });
+    const [first, ...rest] = messages;
+    return { header: (first as { header: ReadingsHeader }).header, chunks: rest.map((m) => (m as { literals: string[] }).literals), sha256 };
+  }
+
+  it('gives the rows, setup and audit hash of readingsToRows, and stores them bit for bit by chunks', async () => {
+    const { header, chunks, sha256 } = await prepare({ version: 4, ...input });
+    const expected = readingsToRows(input);
+    expect(header).toEqual({ version: 4, time: expected.time, channels: expected.channels, readings: n, columns: ['time', 'pressure', 'temperature', 'current'], chunkRows: CHUNK_ROWS });
+    expect(chunks).toHaveLength(2);
+    expect(sha256).toBe(sha256ReadingRows(expected.rows));
+    expect(sha256).toBe(sha256Canonical(expected.rows));
+    const [{ id: runId }] = await h.handle.db.select({ id: runs.id }).from(runs).where(eq(runs.state, 'draft')).limit(1);
+    await h.handle.db.transaction(async (tx) => {
+      await tx.delete(readings).where(eq(readings.runId, runId));
+      await insertReadingChunks(tx, runId, header, (async function* () { yield* chunks; })());
+      const back = await loadReadings(tx, runId);
+      expect(back).toEqual(expected.rows);
+      expect(await hashStoredReadings(tx, runId)).toEqual({ readings: n, sha256 });
+      tx.rollback();
+    }).catch((e: unknown) => {
+      if (!(e instanceof TransactionRollbackError)) throw e;
+    });
+  }, 60_000);
+
+  it('refuses bad readings with exactly the problems readingsToRows names', async () => {
+    const bad = JSON.parse(JSON.stringify(input)) as { time: { values: unknown[] }; channels: Record<string, { values: unknown[]; unit: string }> };
+    bad.channels['pressure'].values[3] = 1e306;
+    bad.channels['pressure'].values[9] = 'high';
+    bad.channels['temperature'].values.pop();
+    bad.time.values[5] = 1e308;
+    const expected = (() => {
+      try {
+        readingsToRows(bad as unknown as ReadingsInput);
+      } catch (err) {
+        return err as HttpProblem;
+      }
+      throw new Error('readingsToRows took the bad readings');
+    })();
+    await expect(prepare({ version: 1, ...bad })).rejects.toEqual(expected);
+    expect(expected.errors!.map((e) => e.field)).toEqual(['time.values[5]', 'pressure.values[3]', 'pressure.values[9]', 'temperature.values']);
+  }, 60_000);
 });

@@ -1,7 +1,7 @@
-import { createHash } from 'node:crypto';
 import type postgres from 'postgres';
 import type { DbOrTx } from '../../db/client';
 import { readings } from '../../db/schema';
+import { ReadingsHash, type ReadingValues } from './readings-columns';
 import type { ReadingRow } from './run-document-mapper';
 
 // 10 columns × 5000 rows stays well under PostgreSQL's 65 535 parameters per statement.
@@ -9,8 +9,6 @@ const READINGS_PER_STATEMENT = 5000;
 /** From this many readings on, the bulk path: one statement per 50 000 readings, ten array parameters each. */
 export const BULK_FROM_ROWS = 5000;
 const BULK_CHUNK = 50_000;
-/** Readings per piece of the audit hash's text. */
-const HASH_CHUNK = 10_000;
 
 /** The postgres.js connection under a Drizzle database or transaction (the bulk insert binds arrays through it). */
 function driverOf(db: DbOrTx): postgres.Sql {
@@ -47,28 +45,46 @@ export async function insertReadings(tx: DbOrTx, runId: number, rows: readonly R
   }
 }
 
-const num = (v: number | null): string => {
-  if (v === null) return 'null';
-  if (!Number.isFinite(v)) throw new Error('canonical JSON has no NaN or Infinity');
-  return Object.is(v, -0) ? '0' : String(v);
-};
+/** sha256Canonical(rows) for readings rows (see ReadingsHash). */
+export function sha256ReadingRows(rows: readonly ReadingRow[]): string {
+  const hash = new ReadingsHash();
+  for (const r of rows) hash.add(r);
+  return hash.digest().sha256;
+}
+
+/** Readings fetched per round trip when a stored run's readings are hashed. */
+const STORED_PIECE = 20_000;
 
 /**
- * sha256Canonical(rows) for readings rows, written row by row without the general walker (which
- * sorts keys and calls JSON.stringify per value: half a minute for 10⁶ rows on a busy machine).
- * The same bytes go into the hash: keys in code-unit order, shortest round-trip numbers, null.
+ * The hash and count of a run's stored readings (what sha256ReadingRows(loadReadings(…)) gives), read
+ * in pieces through a cursor so that a run of a million readings is never held at once, and the event
+ * loop gets a turn between pieces.
  */
-export function sha256ReadingRows(rows: readonly ReadingRow[]): string {
-  const hash = createHash('sha256');
-  hash.update('[');
-  for (let start = 0; start < rows.length; start += HASH_CHUNK) {
-    let chunk = '';
-    for (let i = start; i < Math.min(rows.length, start + HASH_CHUNK); i++) {
-      const r = rows[i];
-      chunk += `${i > 0 ? ',' : ''}{"current":${num(r.current)},"displacement":${num(r.displacement)},"power":${num(r.power)},"pressure":${num(r.pressure)},"seq":${num(r.seq)},"temperature":${num(r.temperature)},"time":${num(r.time)},"voltage":${num(r.voltage)},"volume":${num(r.volume)}}`;
-    }
-    hash.update(chunk);
+export async function hashStoredReadings(tx: DbOrTx, runId: number): Promise<{ readings: number; sha256: string }> {
+  const sql = driverOf(tx);
+  const hash = new ReadingsHash();
+  await sql`SELECT seq, time, pressure, volume, displacement, temperature, voltage, current, power FROM readings WHERE run_id = ${runId} ORDER BY seq`
+    .cursor(STORED_PIECE, async (rows) => {
+      for (const r of rows) hash.add(r as unknown as ReadingValues);
+      await new Promise((resolve) => setImmediate(resolve));
+    });
+  return hash.digest();
+}
+
+/**
+ * Stores prepared readings (readings-prepare.ts) inside the caller's transaction as their chunks come:
+ * INSERT … SELECT FROM unnest(arrays) WITH ORDINALITY, one statement per chunk of `chunkRows` readings;
+ * the event loop is free while PostgreSQL works on each.
+ */
+export async function insertReadingChunks(tx: DbOrTx, runId: number, shape: { columns: string[]; chunkRows: number }, chunks: AsyncIterable<string[]>): Promise<void> {
+  const sql = driverOf(tx);
+  const cols = shape.columns;
+  const query = `INSERT INTO readings (run_id, seq, ${cols.join(', ')})
+    SELECT $1::int, $2::int + t.ord::int, ${cols.map((c) => `t.${c}`).join(', ')}
+    FROM unnest(${cols.map((_, k) => `$${k + 3}::float8[]`).join(', ')}) WITH ORDINALITY AS t(${cols.join(', ')}, ord)`;
+  let from = 0;
+  for await (const literals of chunks) {
+    await sql.unsafe(query, [runId, from, ...literals]);
+    from += shape.chunkRows;
   }
-  hash.update(']');
-  return hash.digest('hex');
 }

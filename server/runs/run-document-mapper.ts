@@ -3,19 +3,13 @@ import type { apparatus as apparatusTable, calibrations, instruments, readings, 
 import { RUN_FORMAT, RUN_FORMAT_VERSION, type Apparatus, type Instrument, type Readings, type RunDocument } from '../engine/run-document';
 import { differenceToSi, fromSi, toSi, type UnitKind } from '../engine/units';
 import { badRequest, type FieldError } from '../core/problem';
+import { columnOf, readingAt, readingsToSi, TIME_FACTORS, type ColumnsInput } from './readings-columns';
 import { CHANNELS, channelNames, type ChannelName, type ChannelSetup, type RunSetup } from './run-setup';
 
 export type ReadingRow = Omit<InferSelectModel<typeof readings>, 'runId'>;
 type RegisterInstrument = InferSelectModel<typeof instruments> & { calibration: InferSelectModel<typeof calibrations> | null };
 
-const TIME_FACTORS = { ms: 1e-3, s: 1, min: 60, h: 3600 } as const;
-/**
- * Range checks after conversion to SI: a finite entry can overflow once multiplied (1e306 bar is
- * 1e311 Pa, which is no number at all), and values past these bounds are no laboratory reading.
- * 1e15 in SI is far above any channel Qwell records (10¹⁵ Pa, K, m³, V, A, W); a run lasts less than 10¹⁰ s.
- */
-export const MAX_SI_MAGNITUDE = 1e15;
-export const MAX_SECONDS = 1e10;
+export { MAX_SECONDS, MAX_SI_MAGNITUDE } from './readings-columns';
 
 /** Readings as people send them: one array per channel, in the channel's own unit. */
 export interface ReadingsInput {
@@ -23,73 +17,14 @@ export interface ReadingsInput {
   channels: Partial<Record<ChannelName, ChannelSetup & { values: Array<number | null> }>>;
 }
 
-/** Converts entered readings to SI rows; every bad cell is reported by channel and reading number. */
+/** Converts entered readings to SI rows; every bad cell is reported by channel and reading number (readingsToSi's checks). */
 export function readingsToRows(input: ReadingsInput): { rows: ReadingRow[]; time: RunSetup['time']; channels: RunSetup['channels'] } {
-  const errors: FieldError[] = [];
-  const n = input.time.values.length;
-  let seconds: number[];
-  let origin: string | undefined;
-  if (input.time.unit === 'iso') {
-    const ms = input.time.values.map((v) => (typeof v === 'string' ? Date.parse(v) : NaN));
-    ms.forEach((m, i) => Number.isFinite(m) || errors.push({ field: `time.values[${i}]`, message: `reading ${i + 1}: not an ISO 8601 timestamp` }));
-    origin = typeof input.time.values[0] === 'string' ? input.time.values[0] : undefined;
-    seconds = ms.map((m) => (m - ms[0]) / 1000);
-  } else {
-    const factor = TIME_FACTORS[input.time.unit];
-    seconds = input.time.values.map((v, i) => {
-      if (typeof v !== 'number' || !Number.isFinite(v)) errors.push({ field: `time.values[${i}]`, message: `reading ${i + 1}: time must be a number` });
-      const si = Number(v) * factor;
-      if (typeof v === 'number' && Number.isFinite(v) && !(Math.abs(si) <= MAX_SECONDS)) {
-        errors.push({ field: `time.values[${i}]`, message: `reading ${i + 1}: ${v} ${input.time.unit} is beyond any run's length (at most ${MAX_SECONDS} s)` });
-      }
-      return si;
-    });
+  const channels: ColumnsInput['channels'] = {};
+  for (const [name, channel] of Object.entries(input.channels) as Array<[ChannelName, ChannelSetup & { values: Array<number | null> }]>) {
+    if (channel) channels[name] = { ...channel, values: columnOf(channel.values) };
   }
-  const channels: NonNullable<RunSetup['channels']> = {};
-  const columns: Partial<Record<ChannelName, (number | null)[]>> = {};
-  for (const name of channelNames) {
-    const channel = input.channels[name];
-    if (!channel) continue;
-    const kind: UnitKind = CHANNELS[name];
-    if (channel.values.length !== n) {
-      errors.push({ field: `${name}.values`, message: `${name} has ${channel.values.length} readings but time has ${n}; every channel needs one value per time point` });
-      continue;
-    }
-    try {
-      toSi(kind, channel.unit, 0);
-    } catch {
-      errors.push({ field: `${name}.unit`, message: `"${channel.unit}" is not a ${name} unit Qwell knows` });
-      continue;
-    }
-    columns[name] = channel.values.map((v, i) => {
-      if (v === null) return null;
-      if (typeof v !== 'number' || !Number.isFinite(v)) {
-        errors.push({ field: `${name}.values[${i}]`, message: `reading ${i + 1}: ${name} must be a number, got ${JSON.stringify(v)}` });
-        return null;
-      }
-      const si = toSi(kind, channel.unit, v);
-      if (!(Math.abs(si) <= MAX_SI_MAGNITUDE)) {
-        errors.push({ field: `${name}.values[${i}]`, message: `reading ${i + 1}: ${v} ${channel.unit} is beyond any measurable ${name} once converted to SI units` });
-        return null;
-      }
-      return si;
-    });
-    const { values: _values, ...meta } = channel;
-    channels[name] = meta;
-  }
-  if (errors.length) throw badRequest(`${errors.length} problem(s) in the readings; nothing was saved.`, errors.slice(0, 100));
-  const rows: ReadingRow[] = seconds.map((time, i) => ({
-    seq: i + 1,
-    time,
-    pressure: columns.pressure?.[i] ?? null,
-    volume: columns.volume?.[i] ?? null,
-    displacement: columns.displacement?.[i] ?? null,
-    temperature: columns.temperature?.[i] ?? null,
-    voltage: columns.voltage?.[i] ?? null,
-    current: columns.current?.[i] ?? null,
-    power: columns.power?.[i] ?? null,
-  }));
-  return { rows, time: { unit: input.time.unit, ...(origin ? { origin } : {}) }, channels };
+  const converted = readingsToSi({ time: { unit: input.time.unit, values: columnOf(input.time.values) }, channels });
+  return { rows: Array.from({ length: converted.si.count }, (_, i) => readingAt(converted.si, i)), time: converted.time, channels: converted.channels };
 }
 
 /** Splits a full run document into what the runs table, its setup and its readings hold. */

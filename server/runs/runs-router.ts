@@ -11,7 +11,7 @@ import { balanceResponse } from '../balance/balance-response';
 import type { JobQueue } from '../jobs/job-queue';
 import { isReviewAction, SignatureDto } from './review-dto';
 import { ReviewService } from './review-service';
-import { readingsJson, parseReplaceReadingsBody } from './readings-body';
+import { readingsBody, type ReadingsFeed } from './readings-body';
 import { CreateRunDto, ReviseDto, RunListQuery, UpdateRunDto, VersionDto } from './runs-dto';
 import { RunsService } from './runs-service';
 import { assertValidSetup } from './setup-validation';
@@ -48,9 +48,9 @@ export function runsRouter(db: Database, config: Config, queue: JobQueue | null)
     res.json(await service.update(req.person!, idParam(req.params['id'], 'run'), body, req.ip ?? null));
   });
 
-  router.put('/:id/readings', requireRole(...AUTHORS), readingsJson(), async (req, res) => {
-    const body = parseReplaceReadingsBody(req.body);
-    res.json(await service.replaceReadings(req.person!, idParam(req.params['id'], 'run'), body, req.ip ?? null));
+  router.put('/:id/readings', requireRole(...AUTHORS), readingsBody(), async (req, res) => {
+    const feed = res.locals['readings'] as ReadingsFeed;
+    res.json(await service.replaceReadings(req.person!, idParam(req.params['id'], 'run'), feed, req.ip ?? null));
   });
 
   router.post('/:id/submit', requireRole(...AUTHORS), async (req, res) => {

@@ -12,14 +12,15 @@ import { projectAddresses, queueMail } from '../mail/outbox';
 import { loadRunFor, loadVisibleRun, visibleProjectIds, type RunRow } from './run-access';
 import { nextCode } from './run-code';
 import { runHistory } from './run-history';
-import { insertReadings, sha256ReadingRows } from './readings-bulk';
-import { parseReadingsInput, readingsToRows, type ReadingRow } from './run-document-mapper';
+import { hashStoredReadings, insertReadingChunks, insertReadings } from './readings-bulk';
+import type { ReadingsFeed } from './readings-body';
+import type { ReadingRow } from './run-document-mapper';
 import { overPressureFilter } from './run-filters';
 import { loadReadings, loadRunDocument } from './run-loader';
 import type { RunSetup } from './run-setup';
 import { submitProblems } from './submit-checklist';
 import { runLink } from '../mail/run-link';
-import type { CreateRunDto, ReplaceReadingsDto, RunListQuery, UpdateRunDto } from './runs-dto';
+import type { CreateRunDto, RunListQuery, UpdateRunDto } from './runs-dto';
 
 /** Fields of a run that the audit trail records before and after a change. */
 const auditView = (r: RunRow) => ({
@@ -162,24 +163,34 @@ export class RunsService {
     });
   }
 
-  async replaceReadings(person: SessionPerson, id: number, body: ReplaceReadingsDto, ip: string | null) {
-    const input = parseReadingsInput(body);
-    const { rows, time, channels } = readingsToRows(input);
-    return this.db.transaction(async (tx) => {
-      const before = await loadRunFor(tx, person, id, 'replaceReadings', body.version);
-      const oldRows = await loadReadings(tx, id);
-      await tx.delete(readings).where(eq(readings.runId, id));
-      await insertReadings(tx, id, rows);
-      const setup: RunSetup = { ...((before.setup ?? {}) as RunSetup), time, channels };
-      const [after] = await tx.update(runs).set({ setup: setup as Record<string, unknown>, version: before.version + 1, updatedAt: sql`now()`, editedAt: sql`now()` }).where(eq(runs.id, id)).returning();
-      await recordAudit(tx, {
-        actorId: person.id, actorEmail: person.email, action: 'run.readings-replace', entityType: 'run', entityId: id,
-        before: { readings: oldRows.length, sha256: sha256ReadingRows(oldRows), version: before.version },
-        after: { readings: rows.length, sha256: sha256ReadingRows(rows), version: after.version, channels: Object.keys(channels ?? {}) },
-        ip,
+  /**
+   * Replaces a run's readings from a readings body as it is prepared (readings-body.ts): a refused body
+   * stops here before any database work; then, in one transaction, the old readings' hash, the delete,
+   * one INSERT per chunk as each arrives, the setup and the audit row.
+   */
+  async replaceReadings(person: SessionPerson, id: number, feed: ReadingsFeed, ip: string | null) {
+    try {
+      const header = await feed.header();
+      const { time, channels } = header;
+      return await this.db.transaction(async (tx) => {
+        const before = await loadRunFor(tx, person, id, 'replaceReadings', header.version);
+        const old = await hashStoredReadings(tx, id);
+        await tx.delete(readings).where(eq(readings.runId, id));
+        await insertReadingChunks(tx, id, header, feed.chunks());
+        const sha256 = await feed.sha256();
+        const setup: RunSetup = { ...((before.setup ?? {}) as RunSetup), time, channels };
+        const [after] = await tx.update(runs).set({ setup: setup as Record<string, unknown>, version: before.version + 1, updatedAt: sql`now()`, editedAt: sql`now()` }).where(eq(runs.id, id)).returning();
+        await recordAudit(tx, {
+          actorId: person.id, actorEmail: person.email, action: 'run.readings-replace', entityType: 'run', entityId: id,
+          before: { readings: old.readings, sha256: old.sha256, version: before.version },
+          after: { readings: header.readings, sha256, version: after.version, channels: Object.keys(channels ?? {}) },
+          ip,
+        });
+        return { id, version: after.version, readings: header.readings };
       });
-      return { id, version: after.version, readings: rows.length };
-    });
+    } finally {
+      feed.stop();
+    }
   }
 
   /** Submits a run: it must read as a complete run document; the check itself is queued. */
