@@ -6,7 +6,7 @@ import { auditEvents, runs } from '../../db/schema';
 import { recordAuditAlone } from '../audit/audit-service';
 import { canonicalJson } from '../core/canonical-json';
 import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
-import { pdfPageCount, pdfTextRuns } from './pdf-text';
+import { pdfPageCount, pdfTextRuns } from '../../testing/pdf-text';
 
 let h: ApiHarness;
 beforeAll(async () => {

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { instruments, runs } from '../../db/schema';
 import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
-import { listRoutes } from './route-list';
+import { listRoutes } from '../../testing/route-list';
 
 type Who = 'anonymous' | 'technician' | 'assistant' | 'investigator' | 'quality' | 'admin';
 const everyone: Who[] = ['technician', 'assistant', 'investigator', 'quality', 'admin'];

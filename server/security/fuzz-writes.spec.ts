@@ -3,7 +3,7 @@ import { startHarness, type ApiClient, type ApiHarness } from '../../testing/api
 import { eq } from 'drizzle-orm';
 import { runs } from '../../db/schema';
 import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, hostileFamilies, payloadsFor, rowCounts, sendOnce, type FuzzIds } from '../../testing/fuzz-writes';
-import { listRoutes } from './route-list';
+import { listRoutes } from '../../testing/route-list';
 
 let h: ApiHarness;
 let clients: Record<string, ApiClient>;
