@@ -62,4 +62,9 @@ describe('import direction', () => {
     const router = join('server', 'runs', 'runs-router.ts');
     expect(offenders(['server', 'db', 'tools'], (target, file) => target === service && file !== router)).toEqual([]);
   });
+
+  it('routers are mounted, never imported for their helpers: only app.ts and routes.ts import a router', () => {
+    const mounts = [join('server', 'app.ts'), join('server', 'routes.ts')];
+    expect(offenders(['server', 'db', 'tools'], (target, file) => /-router$/.test(target) && !mounts.includes(file))).toEqual([]);
+  });
 });
