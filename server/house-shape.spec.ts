@@ -57,4 +57,16 @@ describe('the house shape', () => {
     const folders = atRoot.map((fn) => routers.find((r) => routes.includes(`import { ${fn}Router } from './${r.folder}/`))?.folder ?? fn);
     expect(folders.filter((f) => !(f in MOUNTED_AT_ROOT))).toEqual([]);
   });
+
+  it('keeps routers thin: no router queries the database or writes the audit trail itself', () => {
+    const thick = routers.flatMap(({ folder, name }) => {
+      const text = readFileSync(join(server, folder, `${name}-router.ts`), 'utf8');
+      return [
+        /from 'drizzle-orm'/.test(text) ? `${folder}/${name}-router.ts builds queries (drizzle-orm)` : [],
+        /\brecordAudit(Alone)?\b/.test(text) ? `${folder}/${name}-router.ts writes audit rows` : [],
+        /\bdb\.(select|insert|update|delete|transaction|execute)\b/.test(text) ? `${folder}/${name}-router.ts uses the database handle` : [],
+      ].flat();
+    });
+    expect(thick).toEqual([]);
+  });
 });
