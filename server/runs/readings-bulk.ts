@@ -82,6 +82,9 @@ export async function insertReadingChunks(tx: DbOrTx, runId: number, shape: { co
   const query = `INSERT INTO readings (run_id, seq, ${cols.join(', ')})
     SELECT $1::int, $2::int + t.ord::int, ${cols.map((c) => `t.${c}`).join(', ')}
     FROM unnest(${cols.map((_, k) => `$${k + 3}::float8[]`).join(', ')}) WITH ORDINALITY AS t(${cols.join(', ')}, ord)`;
+  // The run check of migration 0008 keeps each statement's new rows in memory: 50 000 readings are
+  // about 5 MB, more than the default work_mem, which would spill them to a temporary file.
+  await sql`SET LOCAL work_mem = '32MB'`;
   let from = 0;
   for await (const literals of chunks) {
     await sql.unsafe(query, [runId, from, ...literals]);
