@@ -79,7 +79,7 @@ export function analyseCalorimetry(doc: RunDocument, series: RunSeries, electric
   if (h && typed && Math.abs(typed.value - h.value) > opts.k * Math.hypot(typed.u, h.u)) {
     flags.push({
       code: 'HEAT_LEAK_DISAGREES', reading: null,
-      message: `The typed heat-loss coefficient h = ${fmt(typed.value)} W/K differs from the one fitted to the drifts, ${fmt(h.value)} ± ${fmt(h.u, 2)} W/K (k·C with the cooling constant k = ${fmt(newton.k)} 1/s), by more than ${opts.k}·u: update the apparatus or check the drift periods.`,
+      message: `The run's heat-loss coefficient h = ${fmt(typed.value)} W/K (from the apparatus, or a standardization's fitted h where the lab applies it) differs from the one fitted to the drifts, ${fmt(h.value)} ± ${fmt(h.u, 2)} W/K (k·C with the cooling constant k = ${fmt(newton.k)} 1/s), by more than ${opts.k}·u: update the apparatus or check the drift periods.`,
     });
   }
   return {
