@@ -195,7 +195,7 @@ describe('a quality officer', () => {
     await created.getByRole('button', { name: /Show what event \d+ changed/ }).click();
     const changes = page.locator('table.changes').first();
     await changes.waitFor();
-    expect(await changes.getByRole('rowheader', { name: 'state' }).count()).toBe(1);
+    expect(await changes.getByRole('rowheader', { name: 'State', exact: true }).count()).toBe(1);
     expect(await changes.textContent()).toContain('Draft');
     await checkScreen(page, 'audit-readable-quality');
     for (const [path, name] of [['/home', 'home-quality'], ['/instruments', 'instruments-quality'], ['/apparatus', 'apparatus-quality']] as const) {

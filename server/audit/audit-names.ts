@@ -1,7 +1,7 @@
 import { eq, inArray } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { apparatus, instruments, people, projects, runs, signatures } from '../../db/schema';
-import { actionLabel, fieldChanges, recordTypeLabel, type ReadableEvent } from './audit-readable';
+import { apparatus, gases, instruments, people, projects, runs, signatures } from '../../db/schema';
+import { actionLabel, fieldChanges, recordTypeLabel, type ReadableEvent, type ReferenceNames } from './audit-readable';
 
 /** The stored fields of an event that reading it needs. */
 export interface EventFields {
@@ -42,6 +42,7 @@ export async function readableEvents<T extends EventFields>(db: DbOrTx, events: 
     person: names,
     signature: new Map(signatureRuns.map((s) => [s.id, `on run ${runCodes.get(s.runId) ?? s.runId}`])),
   };
+  const refs = await referenceNames(db, events);
   return events.map((e) => {
     const id = Number(e.entityId);
     const record = (Number.isInteger(id) ? codes[e.entityType]?.get(id) : undefined) ?? (e.entityId ? `#${e.entityId}` : '');
@@ -51,7 +52,7 @@ export async function readableEvents<T extends EventFields>(db: DbOrTx, events: 
       actionLabel: actionLabel(e.action),
       recordType: recordTypeLabel(e.entityType),
       record,
-      changes: fieldChanges(e.before, e.after),
+      changes: fieldChanges(e.before, e.after, refs),
     };
   });
 }
@@ -60,4 +61,38 @@ export async function readableEvents<T extends EventFields>(db: DbOrTx, events: 
 export async function runIdsForCode(db: DbOrTx, code: string): Promise<number[]> {
   const rows = await db.select({ id: runs.id }).from(runs).where(eq(runs.code, code.trim().toUpperCase()));
   return rows.map((r) => r.id);
+}
+
+/** Ids that a run's before/after name: the gas, apparatus and project, and each channel's instrument. */
+function referencedIds(events: readonly EventFields[]) {
+  const found = { gasId: [] as unknown[], apparatusId: [] as unknown[], projectId: [] as unknown[], instrumentId: [] as unknown[] };
+  for (const e of events) {
+    for (const side of [e.before, e.after]) {
+      if (!side || typeof side !== 'object') continue;
+      const s = side as Record<string, unknown>;
+      found.gasId.push(s['gasId']);
+      found.apparatusId.push(s['apparatusId']);
+      found.projectId.push(s['projectId']);
+      const channels = (s['setup'] as { channels?: Record<string, { instrumentId?: unknown }> } | undefined)?.channels;
+      if (channels && typeof channels === 'object') for (const ch of Object.values(channels)) found.instrumentId.push(ch?.instrumentId);
+    }
+  }
+  return found;
+}
+
+/** The codes a changed id field shows instead of its number, one query per kind that occurs. */
+async function referenceNames(db: DbOrTx, events: readonly EventFields[]): Promise<ReferenceNames> {
+  const found = referencedIds(events);
+  const gasIds = ids(found.gasId as (number | null)[]);
+  const apparatusIds = ids(found.apparatusId as (number | null)[]);
+  const projectIds = ids(found.projectId as (number | null)[]);
+  const instrumentIds = ids(found.instrumentId as (number | null)[]);
+  const [gasRows, apparatusRows, projectRows, instrumentRows] = await Promise.all([
+    gasIds.length ? db.select({ id: gases.id, code: gases.code }).from(gases).where(inArray(gases.id, gasIds)) : [],
+    apparatusIds.length ? db.select({ id: apparatus.id, code: apparatus.tag }).from(apparatus).where(inArray(apparatus.id, apparatusIds)) : [],
+    projectIds.length ? db.select({ id: projects.id, code: projects.code }).from(projects).where(inArray(projects.id, projectIds)) : [],
+    instrumentIds.length ? db.select({ id: instruments.id, code: instruments.tag }).from(instruments).where(inArray(instruments.id, instrumentIds)) : [],
+  ]);
+  const map = (rows: { id: number; code: string }[]) => new Map(rows.map((r) => [r.id, r.code]));
+  return { gasId: map(gasRows), apparatusId: map(apparatusRows), projectId: map(projectRows), instrumentId: map(instrumentRows) };
 }

@@ -67,7 +67,40 @@ const VALUE_WORDS: Readonly<Record<string, Readonly<Record<string, string>>>> = 
   role: { technician: 'Technician', assistant: 'Student assistant', investigator: 'Principal investigator', quality: 'Quality officer', admin: 'Administrator' },
   verdict: { closes: 'Closes', breaks: 'Breaks', indeterminate: 'Indeterminate' },
   active: { true: 'active', false: 'deactivated' },
+  // Units as people write them (the stored codes are ASCII).
+  unit: { degC: '°C', degF: '°F', m3: 'm³', cm3: 'cm³', cal_th: 'cal (thermochemical)', 'cal_th/K': 'cal (thermochemical)/K', iso: 'date and time' },
+  reference: { absolute: 'absolute', gauge: 'gauge (above the barometric pressure)' },
 };
+
+/** Words for the run's reading channels, as the entry form names them. */
+const CHANNEL_WORDS: Readonly<Record<string, string>> = {
+  pressure: 'Pressure', volume: 'Volume', displacement: 'Piston displacement', temperature: 'Temperature',
+  voltage: 'Heater voltage', current: 'Heater current', power: 'Heater power', time: 'Time',
+};
+
+/** Fields whose path says little to a person, by their label on the screens. */
+const PATH_LABELS: Readonly<Record<string, string>> = {
+  gasId: 'Gas', apparatusId: 'Apparatus', projectId: 'Project', authorId: 'Author', runDate: 'Run date', returnReason: 'Reason for return',
+  revisionReason: 'Reason for the correction', 'setup.processIndex': 'Polytropic index', 'setup.apparatusSource': 'Apparatus constants from',
+  'setup.instruments': 'Instruments described in the run', 'setup.gas.model': 'Gas model', 'setup.gas.species': 'Gas species', 'setup.gas.realGas': 'Real-gas correction',
+  'setup.gas.f': 'Degrees of freedom', 'setup.amount.from': 'Amount of gas from', 'setup.amount.value': 'Amount of gas (mol)', 'setup.amount.u': 'Amount of gas, standard uncertainty (mol)', 'setup.amount.mass': 'Mass of gas',
+  'setup.time.unit': 'Time unit', 'setup.time.origin': 'Time origin', instrumentId: 'Instrument', errors: 'Problems', En: 'En',
+  inputHash: 'Input SHA-256', signedHash: 'Signed SHA-256', resultId: 'Result id', runVersion: 'Run version', ratedPressureReference: 'Rated pressure is',
+};
+
+/**
+ * A changed field's label as the screens say it: "setup.channels.temperature.unit" → "Temperature channel unit",
+ * "gasId" → "Gas", "setup.ambient.pressure" → "Ambient pressure".
+ */
+export function pathLabel(path: string): string {
+  if (PATH_LABELS[path]) return PATH_LABELS[path];
+  const channel = /^setup\.channels\.(\w+)(?:\.(\w+))?$/.exec(path);
+  if (channel) {
+    const field = channel[2] === 'instrumentId' ? 'instrument' : channel[2] ? fieldLabel(channel[2]) : '';
+    return `${CHANNEL_WORDS[channel[1]] ?? fieldLabel(channel[1])} channel${field ? ` ${field}` : ''}`;
+  }
+  return fieldLabel(path.replace(/^setup\./, '')).replace(/^\w/, (c) => c.toUpperCase());
+}
 
 /** Field names as words: `runVersion` → "run version", `ratedPressure.unit` → "rated pressure unit". */
 export function fieldLabel(path: string): string {
@@ -84,7 +117,7 @@ export function valueText(path: string, value: unknown): string {
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   if (typeof value === 'number') return Number.isInteger(value) ? String(value) : String(Number(value.toPrecision(6)));
   if (typeof value === 'string') return value;
-  if (isQuantity(value)) return `${value.value} ${value.unit}${typeof value.u === 'number' ? ` (u = ${value.u})` : ''}`;
+  if (isQuantity(value)) return `${value.value} ${VALUE_WORDS['unit'][value.unit] ?? value.unit}${typeof value.u === 'number' ? ` (u = ${value.u})` : ''}`;
   if (Array.isArray(value)) {
     // Lists of records (a run's instruments) read as their tags.
     const tags = value.map((v) => (v && typeof v === 'object' ? ((v as Record<string, unknown>)['id'] ?? (v as Record<string, unknown>)['tag'] ?? (v as Record<string, unknown>)['code']) : undefined));
@@ -97,6 +130,9 @@ export function valueText(path: string, value: unknown): string {
   // A small object reads as its fields: "unit kPa, reference absolute".
   return Object.entries(value as Record<string, unknown>).map(([k, v]) => `${fieldLabel(k)} ${typeof v === 'object' && v !== null ? JSON.stringify(v) : valueText(k, v)}`).join(', ');
 }
+
+/** Codes of the records an id field names (`gasId` → "N2", a channel's `instrumentId` → "PG-2"), by path or last key. */
+export type ReferenceNames = Partial<Record<string, ReadonlyMap<number, string>>>;
 
 /** One field that an event changed (or set, or cleared). */
 export interface FieldChange {
@@ -111,7 +147,7 @@ function isQuantity(v: unknown): v is { value: unknown; unit: string; u?: unknow
 }
 
 function flatten(value: unknown, prefix: string, out: Map<string, unknown>, depth: number): void {
-  if (value && typeof value === 'object' && !Array.isArray(value) && !isQuantity(value) && depth < 3) {
+  if (value && typeof value === 'object' && !Array.isArray(value) && !isQuantity(value) && depth < 4) {
     for (const [key, inner] of Object.entries(value as Record<string, unknown>)) flatten(inner, prefix ? `${prefix}.${key}` : key, out, depth + 1);
   } else if (prefix) {
     out.set(prefix, value);
@@ -122,7 +158,7 @@ function flatten(value: unknown, prefix: string, out: Map<string, unknown>, dept
  * Before and after as the fields that differ, in the order they first appear; a field present on one
  * side only shows "—" on the other. A side that is not an object (rare) is shown as one "value" field.
  */
-export function fieldChanges(before: unknown, after: unknown): FieldChange[] {
+export function fieldChanges(before: unknown, after: unknown, refs: ReferenceNames = {}): FieldChange[] {
   const wrap = (v: unknown) => (v === null || v === undefined ? {} : typeof v === 'object' && !Array.isArray(v) ? v : { value: v });
   const b = new Map<string, unknown>();
   const a = new Map<string, unknown>();
@@ -134,10 +170,12 @@ export function fieldChanges(before: unknown, after: unknown): FieldChange[] {
     const was = b.get(path);
     const is = a.get(path);
     if (JSON.stringify(was) === JSON.stringify(is)) continue;
+    const names = refs[path] ?? refs[path.split('.').pop()!];
+    const text = (v: unknown) => names?.get(Number(v)) ?? valueText(path, v);
     changes.push({
-      field: fieldLabel(path),
-      before: b.has(path) && before !== null && before !== undefined ? valueText(path, was) : null,
-      after: a.has(path) && after !== null && after !== undefined ? valueText(path, is) : null,
+      field: pathLabel(path),
+      before: b.has(path) && before !== null && before !== undefined ? text(was) : null,
+      after: a.has(path) && after !== null && after !== undefined ? text(is) : null,
     });
   }
   return changes;

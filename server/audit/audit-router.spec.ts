@@ -34,7 +34,7 @@ describe('GET /api/audit, readable', () => {
     expect(items.every((e) => e.actorName === 'Lena Okonkwo')).toBe(true);
     const update = items[0];
     expect(update.actionLabel).toBe('Changed the run');
-    expect(update.changes).toContainEqual({ field: 'title', before: expect.any(String), after: 'Isobaric heating, second bath' });
+    expect(update.changes).toContainEqual({ field: 'Title', before: expect.any(String), after: 'Isobaric heating, second bath' });
     expect(items[2].actionLabel).toBe('Created the run');
   });
 
@@ -67,10 +67,13 @@ describe('GET /api/audit, readable', () => {
     const readable = names.indexOf('what happened (readable)');
     const rows = records.slice(records.indexOf(names) + 1);
     const created = rows.map((r) => r[readable]).find((text) => text.startsWith(`Lena Okonkwo · Created the run · Run ${run.code} rev. 1: `))!;
-    expect(created).toContain('state: Draft');
-    expect(created).toContain('setup ambient pressure: 101.42 kPa (u = 0.03)');
+    expect(created).toContain('State: Draft');
+    expect(created).toContain('Ambient pressure: 101.42 kPa (u = 0.03)');
+    // Paths read as the form's labels, not as "setup gas species".
+    expect(created).toContain('Gas species: N2');
+    expect(created).not.toMatch(/setup |gas id/);
     expect(created).not.toContain('{');
-    expect(rows.some((r) => r[readable].startsWith(`Lena Okonkwo · Changed the run · Run ${run.code} rev. 1: title: `))).toBe(true);
+    expect(rows.some((r) => r[readable].startsWith(`Lena Okonkwo · Changed the run · Run ${run.code} rev. 1: Title: `))).toBe(true);
   });
 });
 

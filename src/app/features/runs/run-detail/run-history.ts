@@ -10,17 +10,20 @@ const ACTION_LABELS: Readonly<Record<string, string>> = {
   'run.create': 'Created the run',
   'run.update': 'Edited the run',
   'run.readings-replace': 'Replaced the readings',
-  'run.submit': 'Submitted for review',
-  'run.checked': 'Balance checked',
-  'run.check-failed': 'Balance check failed',
-  'run.approve': 'Approved (signed)',
-  'run.return': 'Returned for correction (signed)',
-  'run.reject': 'Rejected (signed)',
+  'run.submit': 'Submitted the run for review',
+  'run.checked': 'Checked the energy balance',
+  'run.check-failed': 'Could not check the energy balance',
+  'run.approve': 'Approved the run with a signature',
+  'run.return': 'Returned the run for correction with a signature',
+  'run.reject': 'Rejected the run with a signature',
   'run.revise': 'Opened a corrected revision',
   'run.export': 'Downloaded the run document',
-  'signature.refused': 'Signature refused',
-  'seed.run': 'Loaded with the demo lab',
+  'run.report': 'Printed the run report',
+  'signature.refused': 'A signature was refused',
+  'seed.run': 'Loaded the run with the demo lab',
 };
+
+const VERDICT_WORDS: Readonly<Record<string, string>> = { closes: 'Closes', breaks: 'Breaks', indeterminate: 'Indeterminate' };
 
 const SIGNATURE_LABELS: Readonly<Record<string, string>> = {
   approve: 'Approved',
@@ -44,8 +47,17 @@ export class RunHistory {
 
   protected readonly stateLabels = RUN_STATE_LABELS;
 
-  protected actionLabel(action: string): string {
-    return ACTION_LABELS[action] ?? action;
+  /** The event as a sentence: "Created the run (Draft)", "Checked the energy balance (Breaks)". */
+  protected sentence(event: HistoryEvent): string {
+    const action = ACTION_LABELS[event.action] ?? event.action.replace(/^\w+\./, '').replace(/-/g, ' ');
+    const verdict = event.action === 'run.checked' ? VERDICT_WORDS[String(event.after?.['verdict'])] : undefined;
+    const detail = verdict ?? this.change(event);
+    return detail ? `${action} (${detail})` : action;
+  }
+
+  protected who(event: HistoryEvent): string {
+    // Checks and the sweep run with no one signed in: the server did them.
+    return event.actorName ?? event.actorEmail ?? 'Qwell';
   }
 
   protected signatureLabel(action: string): string {
