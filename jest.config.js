@@ -10,6 +10,8 @@ module.exports = {
       displayName: 'client',
       roots: ['<rootDir>/src'],
       setupFilesAfterEnv: ['<rootDir>/src/test-setup.ts'],
+      // tsconfig.json's path to the contract shared with the server.
+      moduleNameMapper: { '^@contract$': '<rootDir>/contract/index.ts' },
     },
     {
       displayName: 'server',

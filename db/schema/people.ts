@@ -1,7 +1,8 @@
 import { boolean, index, integer, pgEnum, pgTable, primaryKey, serial, text, timestamp } from 'drizzle-orm/pg-core';
+import { ROLES, type Role } from '../../contract/roles';
 
-export const roles = ['technician', 'assistant', 'investigator', 'quality', 'admin'] as const;
-export type Role = (typeof roles)[number];
+export const roles = ROLES;
+export type { Role };
 export const roleEnum = pgEnum('role', roles);
 
 /** A person who signs in. Passwords are bcrypt hashes; lockout state lives beside them. */

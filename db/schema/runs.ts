@@ -4,15 +4,17 @@ import {
 import { apparatus, gases } from './equipment';
 import { bytea } from './bytea';
 import { people, projects } from './people';
+import { RUN_PROCESSES, RUN_STATES, VERDICTS, type ReviewAction, type RunState } from '../../contract/runs';
 
-export const runStates = ['draft', 'submitted', 'approved', 'returned', 'rejected'] as const;
-export type RunState = (typeof runStates)[number];
+// The enums take their values from the contract the client shares (contract/runs.ts).
+export const runStates = RUN_STATES;
+export type { RunState };
 export const runStateEnum = pgEnum('run_state', runStates);
 
-export const processes = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric', 'free-form'] as const;
+export const processes = RUN_PROCESSES;
 export const processEnum = pgEnum('process', processes);
 
-export const verdicts = ['closes', 'breaks', 'indeterminate'] as const;
+export const verdicts = VERDICTS;
 export const verdictEnum = pgEnum('verdict', verdicts);
 
 export const runs = pgTable(
@@ -105,8 +107,6 @@ export const balanceResults = pgTable(
   (t) => [index('balance_results_run_idx').on(t.runId, t.computedAt)],
 );
 
-export const signatureMeanings = ['approval', 'return', 'rejection'] as const;
-
 /** An electronic signature: who signed what (by hash), when, and what the signature means. */
 export const signatures = pgTable(
   'signatures',
@@ -114,7 +114,7 @@ export const signatures = pgTable(
     id: serial('id').primaryKey(),
     runId: integer('run_id').notNull().references(() => runs.id),
     signerId: integer('signer_id').notNull().references(() => people.id),
-    action: text('action').notNull(),
+    action: text('action').$type<ReviewAction>().notNull(),
     meaning: text('meaning').notNull(),
     reason: text('reason'),
     /** SHA-256 of the canonical run and result that were signed. */

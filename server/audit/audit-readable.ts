@@ -1,5 +1,7 @@
 // The audit trail in the lab's words: actions as plain phrases, records by their codes, and before/after
 // as a field-by-field difference. Pure: the names and codes are looked up by audit-names.ts.
+import { ROLE_LABELS } from '../../contract/roles';
+import { RUN_STATE_LABELS, VERDICT_LABELS } from '../../contract/runs';
 
 /** One term for the kind of record an event touched, shown as "record type" everywhere. */
 export const RECORD_TYPE_LABELS: Readonly<Record<string, string>> = {
@@ -63,9 +65,9 @@ export function recordTypeLabel(entityType: string): string {
 
 /** Words for stored values that are codes: run states, roles and verdicts. */
 const VALUE_WORDS: Readonly<Record<string, Readonly<Record<string, string>>>> = {
-  state: { draft: 'Draft', submitted: 'Submitted', approved: 'Approved', returned: 'Returned', rejected: 'Rejected' },
-  role: { technician: 'Technician', assistant: 'Student assistant', investigator: 'Principal investigator', quality: 'Quality officer', admin: 'Administrator' },
-  verdict: { closes: 'Closes', breaks: 'Breaks', indeterminate: 'Indeterminate' },
+  state: RUN_STATE_LABELS,
+  role: ROLE_LABELS,
+  verdict: VERDICT_LABELS,
   active: { true: 'active', false: 'deactivated' },
   // Units as people write them (the stored codes are ASCII).
   unit: { degC: '°C', degF: '°F', m3: 'm³', cm3: 'cm³', cal_th: 'cal (thermochemical)', 'cal_th/K': 'cal (thermochemical)/K', iso: 'date and time' },

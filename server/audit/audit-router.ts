@@ -1,3 +1,4 @@
+import { AUDIT_READERS } from '../../contract/roles';
 import { Router } from 'express';
 import type { Database } from '../../db/client';
 import type { Config } from '../config';
@@ -11,7 +12,8 @@ import { AuditService } from './audit-service';
 export function auditRouter(db: Database, config: Config): Router {
   const service = new AuditService(db);
   const router = Router();
-  const readers = requireRole('quality', 'investigator');
+  const readers = requireRole(...AUDIT_READERS);
+
   router.get('/', readers, async (req, res) => {
     res.json(await service.list(req.person!, await validateQuery(AuditQuery, req.query)));
   });

@@ -1,10 +1,12 @@
+import type { BalanceResponse, BalanceResult } from '../../contract/api/result';
+import type { Wire } from '../../contract/wire';
 import type { balanceResults } from '../../db/schema';
 import { notFound } from '../core/problem';
 import type { RunRow } from '../runs/run-access';
 import { whySentence, type WhyInput } from './why-sentence';
 
 /** The stored result of a run, saying whether it still describes the run's current version. */
-export function balanceResponse(run: RunRow, row: typeof balanceResults.$inferSelect | undefined) {
+export function balanceResponse(run: RunRow, row: typeof balanceResults.$inferSelect | undefined): Wire<BalanceResponse> {
   if (!row) {
     throw notFound(run.state === 'submitted'
       ? `Run ${run.code} is being checked; its result appears here when the check finishes.`
@@ -18,7 +20,8 @@ export function balanceResponse(run: RunRow, row: typeof balanceResults.$inferSe
     // A result computed before the run's content last changed never looks current.
     stale: row.computedAt < run.editedAt,
     computedAt: row.computedAt,
-    result: row.result,
+    // What the engine stored; results stored before a field existed lack only the optional ones.
+    result: row.result as unknown as BalanceResult,
     /** One sentence of why beside a verdict that breaks or is indeterminate; null when it closes. */
     why: storedWhy(row.result),
   };

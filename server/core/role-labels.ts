@@ -1,13 +1,6 @@
-import type { Role } from '../../db/schema';
+import { ROLE_LABELS, type Role } from '../../contract/roles';
 
-/** A role as people name it (the client's ROLE_LABELS say the same). */
-export const ROLE_LABELS: Readonly<Record<Role, string>> = {
-  technician: 'Technician',
-  assistant: 'Student assistant',
-  investigator: 'Principal investigator',
-  quality: 'Quality officer',
-  admin: 'Administrator',
-};
+export { ROLE_LABELS };
 
 /** "a technician", "an administrator": the role in a sentence. */
 export function roleWithArticle(role: Role): string {

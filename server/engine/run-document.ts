@@ -1,5 +1,7 @@
 // The run document: Qwell's versioned JSON interchange format for one run (docs/run-document.md),
 // and its validation into a list of { path, message } problems.
+import { CHANNEL_UNIT_KINDS } from '../../contract/channels';
+import { RUN_PROCESSES } from '../../contract/runs';
 import { SPECIES, type Species } from './gases';
 import type { InstrumentSpec } from './instrument-uncertainty';
 import { validateCalorimetryFields, type CalorimetryFields } from './run-document-calorimetry';
@@ -100,18 +102,10 @@ export interface ValidationError {
 
 export type ValidationResult = { ok: true; doc: RunDocument } | { ok: false; errors: ValidationError[] };
 
-export const PROCESSES: readonly ClaimedProcess[] = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric', 'free-form'];
+export const PROCESSES: readonly ClaimedProcess[] = RUN_PROCESSES;
 
 /** The reading channels besides time, and the unit kind of each. */
-export const CHANNEL_KINDS: Readonly<Record<Exclude<keyof Readings, 'time'>, UnitKind>> = {
-  pressure: 'pressure',
-  volume: 'volume',
-  displacement: 'length',
-  temperature: 'temperature',
-  voltage: 'voltage',
-  current: 'current',
-  power: 'power',
-};
+export const CHANNEL_KINDS: Readonly<Record<Exclude<keyof Readings, 'time'>, UnitKind>> = CHANNEL_UNIT_KINDS;
 
 const APPARATUS_KINDS: Readonly<Record<Exclude<keyof Apparatus, 'name'>, UnitKind>> = {
   heatCapacity: 'heatCapacity',

@@ -1,4 +1,5 @@
 // Boundary work of the gas, W = ∫P dV (first law sign convention: work done BY the gas is positive).
+import type { RunProcess } from '../../contract/runs';
 import { R_GAS } from './units';
 
 export type ArrayLike64 = ArrayLike<number>;
@@ -22,7 +23,7 @@ export function shoelaceArea(P: ArrayLike64, V: ArrayLike64): number {
 }
 
 /** 'free-form': a path that follows no named process (loops, free paths); no model work and no claim flags. */
-export type ClaimedProcess = 'isobaric' | 'isochoric' | 'isothermal' | 'adiabatic' | 'polytropic' | 'calorimetric' | 'free-form';
+export type ClaimedProcess = RunProcess;
 
 export interface ModelWorkInput {
   process: ClaimedProcess;

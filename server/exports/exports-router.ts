@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import { AUDIT_READERS, RUN_READERS } from '../../contract/roles';
 import type { Database } from '../../db/client';
 import type { Config } from '../config';
 import { idParam } from '../core/route-params';
@@ -17,7 +18,7 @@ import { buildRunReport } from './run-report';
 export function exportsRouter(db: Database, config: Config): Router {
   const router = Router();
 
-  router.get('/audit/export', requireRole('quality', 'investigator'), async (req, res) => {
+  router.get('/audit/export', requireRole(...AUDIT_READERS), async (req, res) => {
     const q = await validateQuery(AuditExportQuery, req.query);
     await withTempFile(`audit.${q.format}`, async (path) => {
       const built = await buildAuditExport(db, config, req.person!, q, path, req.ip ?? null);
@@ -25,7 +26,7 @@ export function exportsRouter(db: Database, config: Config): Router {
     });
   });
 
-  router.get('/runs/:id/report.pdf', requireRole('technician', 'assistant', 'investigator', 'quality'), async (req, res) => {
+  router.get('/runs/:id/report.pdf', requireRole(...RUN_READERS), async (req, res) => {
     const id = idParam(req.params['id'], 'run');
     await withTempFile('report.pdf', async (path) => {
       const built = await buildRunReport(db, config, req.person!, id, path, req.ip ?? null);

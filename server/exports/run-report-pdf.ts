@@ -1,3 +1,4 @@
+import { RUN_STATE_LABELS } from '../../contract/runs';
 import type { SessionPerson } from '../core/session';
 import { drawPvDiagram } from './pv-diagram';
 import { COLOURS, ensureSpace, keyValues, newPdf, pdfText, pdfToFile, sectionTitle, stampPages, table, type Pdf } from './pdf-layout';
@@ -156,7 +157,8 @@ function flags(doc: Pdf, d: RunReportData): void {
   }
 }
 
-const STATE_WORDS: Record<string, string> = { draft: 'Draft', submitted: 'Submitted', approved: 'Approved', returned: 'Returned for correction', rejected: 'Rejected' };
+// The report spells out what a returned run waits for.
+const STATE_WORDS: Record<string, string> = { ...RUN_STATE_LABELS, returned: 'Returned for correction' };
 const SIGNED_WORDS: Record<string, string> = { approve: 'Approved', return: 'Returned for correction', reject: 'Rejected' };
 
 function signed(doc: Pdf, d: RunReportData): void {

@@ -1,4 +1,5 @@
 import { and, count, eq, gt, inArray, ne, sql, type SQL } from 'drizzle-orm';
+import type { HomeQueue } from '../../contract/api/home';
 import type { Database } from '../../db/client';
 import { people, runs, type RunState } from '../../db/schema';
 import type { SessionPerson } from '../core/session';
@@ -7,13 +8,7 @@ import { overPressureFilter } from '../runs/run-filters';
 import { visibleProjectIds } from '../runs/run-access';
 
 /** One entry of a person's home queue: a count and where the list behind it lives. */
-export interface Queue {
-  key: string;
-  label: string;
-  count: number;
-  link: string;
-  queryParams?: Record<string, string>;
-}
+export type Queue = HomeQueue;
 
 /** Runs whose readings went above the vessel's rated pressure: a safety tile for reviewers and quality officers. */
 const OVER_PRESSURE_TILE = (count: number): Queue => ({

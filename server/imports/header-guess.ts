@@ -1,27 +1,14 @@
-import type { ChannelName } from '../runs/run-setup';
+import type { ImportChannel, PressureReference } from '../../contract/channels';
 
-/** What a column holds: a reading channel, or the time of each reading. */
-export type ImportChannel = ChannelName | 'time';
-export const importChannels: readonly ImportChannel[] = ['time', 'pressure', 'volume', 'displacement', 'temperature', 'voltage', 'current', 'power'];
+/** What a column holds: a reading channel, or the time of each reading (the contract's list). */
+export type { ImportChannel };
 
 export interface ColumnGuess {
   channel: ImportChannel | null;
-  /** A unit as the engine names it (server/engine/units.ts), 'iso' for date-times; null when the header names none. */
+  /** A unit as the engine names it (contract/units.ts), 'iso' for date-times; null when the header names none. */
   unit: string | null;
-  reference?: 'absolute' | 'gauge';
+  reference?: PressureReference;
 }
-
-/** The units each import channel takes, as the engine names them. */
-export const UNITS_BY_CHANNEL: Readonly<Record<ImportChannel, readonly string[]>> = {
-  time: ['s', 'ms', 'min', 'h', 'iso'],
-  pressure: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'],
-  volume: ['m3', 'L', 'mL', 'cm3'],
-  displacement: ['m', 'mm'],
-  temperature: ['K', 'degC', 'degF'],
-  voltage: ['V', 'mV'],
-  current: ['A', 'mA'],
-  power: ['W', 'mW'],
-};
 
 /** Unit spellings seen in logger headers (lower case, spaces removed) → [channel, engine unit, reference]. */
 const UNIT_SPELLINGS: Record<string, [ImportChannel, string, ('absolute' | 'gauge')?]> = {

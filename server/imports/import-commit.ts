@@ -87,7 +87,7 @@ export async function commitImport(db: Database, person: SessionPerson, id: numb
       runId = run.id;
       version = run.version;
     } else {
-      const before = await loadRunFor(tx, person, body.target.runId, 'replaceReadings', body.target.version);
+      const before = await loadRunFor(tx, person, body.target.runId, 'edit', body.target.version);
       const oldRows = await loadReadings(tx, before.id);
       await tx.delete(readings).where(eq(readings.runId, before.id));
       await insertReadings(tx, before.id, rows);

@@ -1,5 +1,6 @@
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
+import { IMPORTERS } from '../../contract/roles';
 import type { Database } from '../../db/client';
 import type { Config } from '../config';
 import { badRequest } from '../core/problem';
@@ -10,8 +11,6 @@ import { importLimitsFromEnv, type ImportLimits } from './import-limits';
 import { tooLarge } from './import-problems';
 import { ColumnMapDto, parseCommitBody, parseUploadOptions } from './imports-dto';
 import { ImportsService } from './imports-service';
-
-const IMPORTERS = ['technician', 'assistant', 'investigator'] as const;
 
 /** multer in memory, with its errors turned into problems people can act on. */
 function fileUpload(limits: ImportLimits): RequestHandler {

@@ -1,14 +1,12 @@
 import { badRequest, type FieldError } from '../core/problem';
 import type { ReadingsInput } from '../runs/run-document-mapper';
-import { channelNames, type ChannelName } from '../runs/run-setup';
-import { UNITS_BY_CHANNEL } from './header-guess';
+import { PRESSURE_REFERENCES, UNITS_BY_CHANNEL, type ReadingChannel } from '../../contract/channels';
+import type { ImportMapping } from '../../contract/api/imports';
+import { channelNames } from '../runs/run-setup';
 import type { ParsedTable } from './table-builder';
 
-/** How the columns of an upload become a run's readings. */
-export interface ImportMapping {
-  time: { index: number; unit: 'ms' | 's' | 'min' | 'h' | 'iso' };
-  columns: Array<{ index: number; channel: ChannelName; unit: string; reference?: 'absolute' | 'gauge'; instrumentId?: number }>;
-}
+/** How the columns of an upload become a run's readings (the contract's shape). */
+export type { ImportMapping };
 
 /** One bad cell: the spreadsheet row number, the column's header, and what is wrong. */
 export interface RowError {
@@ -21,7 +19,7 @@ export interface RowError {
 export interface ImportSummary {
   rows: number;
   timeSpan: { from: number | string; to: number | string; unit: string; seconds: number } | null;
-  perChannel: Partial<Record<ChannelName, { min: number; max: number; unit: string }>>;
+  perChannel: Partial<Record<ReadingChannel, { min: number; max: number; unit: string }>>;
 }
 
 export interface RowCheck {
@@ -54,7 +52,7 @@ export function checkMapping(table: ParsedTable, mapping: ImportMapping): void {
     if (!UNITS_BY_CHANNEL[c.channel].includes(c.unit)) {
       errors.push({ field: `${at}.unit`, message: `"${c.unit}" is not a ${c.channel} unit; choose one of ${UNITS_BY_CHANNEL[c.channel].join(', ')}` });
     }
-    if (c.reference !== undefined && (c.channel !== 'pressure' || !['absolute', 'gauge'].includes(c.reference))) {
+    if (c.reference !== undefined && (c.channel !== 'pressure' || !(PRESSURE_REFERENCES as readonly string[]).includes(c.reference))) {
       errors.push({ field: `${at}.reference`, message: 'reference is "absolute" or "gauge", and only for pressure' });
     }
   });

@@ -1,9 +1,10 @@
 import { IsInt, IsOptional, IsString, Length, MaxLength } from 'class-validator';
+import { REVIEW_ACTIONS, SIGNATURE_MEANINGS, type ReviewAction } from '../../contract/runs';
 
-/** What a signature means, in the signer's own choice of words from a fixed list. */
-export const approvalMeanings = ['I have reviewed this run and approve its results', 'I approve this run for release from the lab'] as const;
-export const returnMeanings = ['I have reviewed this run and return it for correction'] as const;
-export const rejectionMeanings = ['I have reviewed this run and reject its results'] as const;
+/** What a signature means, in the signer's own choice of words from the contract's fixed list. */
+export const approvalMeanings = SIGNATURE_MEANINGS.approve;
+export const returnMeanings = SIGNATURE_MEANINGS.return;
+export const rejectionMeanings = SIGNATURE_MEANINGS.reject;
 
 /** The fields of every electronic signature: the signer's password again, the meaning, an optional reason. */
 export class SignatureFields {
@@ -22,6 +23,5 @@ export class SignatureDto extends SignatureFields {
   version!: number;
 }
 
-export const reviewActions = ['approve', 'return', 'reject'] as const;
-export type ReviewAction = (typeof reviewActions)[number];
-export const isReviewAction = (v: string): v is ReviewAction => (reviewActions as readonly string[]).includes(v);
+export type { ReviewAction };
+export const isReviewAction = (v: string): v is ReviewAction => (REVIEW_ACTIONS as readonly string[]).includes(v);

@@ -9,15 +9,13 @@ import { queueMail } from '../mail/outbox';
 import { runLink } from '../mail/run-link';
 import { loadRunFor } from './run-access';
 import { loadReadings } from './run-loader';
-import { approvalMeanings, rejectionMeanings, returnMeanings, type ReviewAction, type SignatureDto } from './review-dto';
+import { MIN_JUSTIFICATION, MIN_REVIEW_REASON, SIGNATURE_MEANINGS } from '../../contract/runs';
+import type { ReviewAction, SignatureDto } from './review-dto';
 import { nextState } from './run-state-machine';
 import { signedHash } from './signature-hash';
 import { checkSignerPassword } from './signer-password';
 import { insertReadings } from './readings-bulk';
 
-const meaningsFor: Record<ReviewAction, readonly string[]> = { approve: approvalMeanings, return: returnMeanings, reject: rejectionMeanings };
-/** Shortest written justification for approving a run whose check breaks or is indeterminate. */
-export const MIN_JUSTIFICATION = 20;
 const pastTense: Record<ReviewAction, string> = { approve: 'approved', return: 'returned for correction', reject: 'rejected' };
 
 export class ReviewService {
@@ -28,12 +26,12 @@ export class ReviewService {
    * some cases a reason. The signature names the SHA-256 of the run and result that were on screen.
    */
   async decide(person: SessionPerson, id: number, action: ReviewAction, body: SignatureDto, ip: string | null) {
-    if (!meaningsFor[action].includes(body.meaning)) {
-      throw badRequest(`meaning must be one of: ${meaningsFor[action].map((m) => `"${m}"`).join(', ')}.`, [{ field: 'meaning', message: 'not a meaning for this action' }]);
+    if (!SIGNATURE_MEANINGS[action].includes(body.meaning)) {
+      throw badRequest(`meaning must be one of: ${SIGNATURE_MEANINGS[action].map((m) => `"${m}"`).join(', ')}.`, [{ field: 'meaning', message: 'not a meaning for this action' }]);
     }
     const reason = body.reason?.trim() ?? '';
-    if ((action === 'return' || action === 'reject') && reason.length < 5) {
-      throw badRequest(`Say why the run is ${pastTense[action]} (reason, at least 5 characters).`, [{ field: 'reason', message: 'required' }]);
+    if ((action === 'return' || action === 'reject') && reason.length < MIN_REVIEW_REASON) {
+      throw badRequest(`Say why the run is ${pastTense[action]} (reason, at least ${MIN_REVIEW_REASON} characters).`, [{ field: 'reason', message: 'required' }]);
     }
     // The run must exist and be the signer's to decide before the password is compared, so a guess at
     // a run that is not there (or not theirs) learns nothing about the password.
@@ -78,7 +76,7 @@ export class ReviewService {
   async revise(person: SessionPerson, id: number, reasonInput: string, ip: string | null) {
     const reason = reasonInput.trim();
     return this.db.transaction(async (tx) => {
-      const old = await loadRunFor(tx, person, id, 'revise');
+      const old = await loadRunFor(tx, person, id, 'correct');
       const rows = await loadReadings(tx, id);
       const [revision] = await tx.insert(runs).values({
         code: old.code, revision: old.revision + 1, previousRevisionId: old.id, revisionReason: reason, projectId: old.projectId,

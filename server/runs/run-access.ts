@@ -3,7 +3,7 @@ import type { DbOrTx } from '../../db/client';
 import { projectMembers, runs } from '../../db/schema';
 import { forbidden, HttpProblem, notFound } from '../core/problem';
 import type { SessionPerson } from '../core/session';
-import { refusal, type RunAction } from './run-state-machine';
+import { refusal, type ActionContext, type RunAction } from './run-state-machine';
 
 export type RunRow = typeof runs.$inferSelect;
 
@@ -37,16 +37,22 @@ export async function loadVisibleRun(db: DbOrTx, person: SessionPerson, id: numb
   return run;
 }
 
+/** What the workflow table needs to know about a person and a run they can see (loadVisibleRun). */
+export async function actionContext(db: DbOrTx, person: SessionPerson, run: RunRow): Promise<ActionContext> {
+  return {
+    role: person.role,
+    isAuthor: run.authorId === person.id,
+    // loadVisibleRun let everyone but quality officers in only as members of the run's project.
+    isMember: person.role !== 'quality',
+    state: run.state,
+    isLatestRevision: await isLatest(db, run),
+  };
+}
+
 /** Loads and locks a run for an action, checks the workflow table and the version the client read. */
 export async function loadRunFor(db: DbOrTx, person: SessionPerson, id: number, action: RunAction, version?: number): Promise<RunRow> {
   const run = await loadVisibleRun(db, person, id, { lock: true });
-  const refused = refusal(action, {
-    role: person.role,
-    isAuthor: run.authorId === person.id,
-    isMember: person.role === 'quality' ? false : true,
-    state: run.state,
-    isLatestRevision: await isLatest(db, run),
-  });
+  const refused = refusal(action, await actionContext(db, person, run));
   if (refused) throw new HttpProblem(refused.status, refused.status === 403 ? 'Not allowed' : 'Conflict', refused.reason);
   if (version !== undefined && version !== run.version) {
     throw new HttpProblem(409, 'Conflict',

@@ -14,5 +14,7 @@ export async function runHistory(db: DbOrTx, person: SessionPerson, id: number) 
     .leftJoin(people, eq(people.id, auditEvents.actorId))
     .where(and(eq(auditEvents.entityType, 'run'), inArray(auditEvents.entityId, revisionIds)))
     .orderBy(asc(auditEvents.id));
-  return { items };
+  // The trail stores objects (or nothing) before and after; jsonb reads back untyped.
+  type Snapshot = Record<string, unknown> | null;
+  return { items: items.map((e) => ({ ...e, before: e.before as Snapshot, after: e.after as Snapshot })) };
 }

@@ -1,7 +1,7 @@
 import { roles, runStates, type Role, type RunState } from '../../db/schema';
 import { refusal, type RunAction } from './run-state-machine';
 
-const actions: RunAction[] = ['edit', 'replaceReadings', 'submit', 'approve', 'return', 'reject', 'revise'];
+const actions: RunAction[] = ['edit', 'submit', 'approve', 'return', 'reject', 'correct'];
 
 /**
  * The expected workflow, written out independently of the implementation: for each action, the
@@ -12,14 +12,13 @@ function expected(action: RunAction, role: Role, isAuthor: boolean, state: RunSt
   const writer = role === 'technician' || role === 'assistant' || role === 'investigator';
   switch (action) {
     case 'edit':
-    case 'replaceReadings':
     case 'submit':
       return writer && isAuthor && (state === 'draft' || state === 'returned');
     case 'approve':
     case 'return':
     case 'reject':
       return role === 'investigator' && !isAuthor && state === 'submitted';
-    case 'revise':
+    case 'correct':
       return writer && state === 'approved';
   }
 }

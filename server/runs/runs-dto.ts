@@ -1,3 +1,4 @@
+import { RUN_SORTS } from '../../contract/api/runs';
 import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsObject, IsOptional, IsString, Length, Max, Min } from 'class-validator';
 import { IsCalendarDay, IsOptionalNotNull, Trimmed } from '../core/validators';
@@ -7,7 +8,7 @@ import type { RunSetup } from './run-setup';
 
 type Process = (typeof processes)[number];
 
-export const runSortKeys = ['updatedAt', 'createdAt', 'runDate', 'code', 'title', 'state'] as const;
+export const runSortKeys = RUN_SORTS;
 
 export class RunListQuery {
   @IsOptional() @Type(() => Number) @IsInt({ message: 'page must be a whole number' }) @Min(1, { message: 'page starts at 1' })

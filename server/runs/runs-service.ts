@@ -1,4 +1,7 @@
 import { and, asc, count, desc, eq, inArray, ne, sql, type SQL } from 'drizzle-orm';
+import { inRoleGroup, RUN_AUTHORS } from '../../contract/roles';
+import type { RunPage, RunRead } from '../../contract/api/runs';
+import type { Wire } from '../../contract/wire';
 import type { Database, DbOrTx } from '../../db/client';
 import { apparatus, balanceResults, gases, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
 import { recordAudit, recordAuditAlone } from '../audit/audit-service';
@@ -9,9 +12,10 @@ import { sha256Canonical, validateRunDocument, type RunDocument } from '../engin
 import { buildSeries } from '../engine/series';
 import type { JobQueue } from '../jobs/job-queue';
 import { projectAddresses, queueMail } from '../mail/outbox';
-import { loadRunFor, loadVisibleRun, visibleProjectIds, type RunRow } from './run-access';
+import { actionContext, loadRunFor, loadVisibleRun, visibleProjectIds, type RunRow } from './run-access';
 import { nextCode } from './run-code';
 import { runHistory } from './run-history';
+import { offeredActions } from './run-state-machine';
 import { hashStoredReadings, insertReadingChunks, insertReadings } from './readings-bulk';
 import type { ReadingsFeed } from './readings-body';
 import type { ReadingRow } from './run-document-mapper';
@@ -30,7 +34,7 @@ const auditView = (r: RunRow) => ({
 export class RunsService {
   constructor(private readonly db: Database, private readonly config: Config, private readonly queue: JobQueue | null) {}
 
-  async list(person: SessionPerson, query: RunListQuery) {
+  async list(person: SessionPerson, query: RunListQuery): Promise<Wire<RunPage>> {
     const filters: SQL[] = [];
     const projectIds = await visibleProjectIds(this.db, person);
     if (projectIds !== null) {
@@ -71,9 +75,9 @@ export class RunsService {
   }
 
   /** The run, its readings as columns, its current result summary, signatures and revisions. */
-  async get(person: SessionPerson, id: number) {
+  async get(person: SessionPerson, id: number): Promise<Wire<RunRead>> {
     const run = await loadVisibleRun(this.db, person, id);
-    const [rows, [result], sigs, revisions, [author], [project]] = await Promise.all([
+    const [rows, [result], sigs, revisions, [author], [project], context] = await Promise.all([
       loadReadings(this.db, id),
       this.db.select({ id: balanceResults.id, runVersion: balanceResults.runVersion, verdict: balanceResults.verdict, en: balanceResults.en, computedAt: balanceResults.computedAt })
         .from(balanceResults).where(and(eq(balanceResults.runId, id), eq(balanceResults.current, true))),
@@ -83,6 +87,7 @@ export class RunsService {
         .from(runs).where(eq(runs.code, run.code)).orderBy(asc(runs.revision)),
       this.db.select({ name: people.name }).from(people).where(eq(people.id, run.authorId)),
       this.db.select({ name: projects.name }).from(projects).where(eq(projects.id, run.projectId)),
+      actionContext(this.db, person, run),
     ]);
     const column = (key: keyof ReadingRow) => rows.map((r) => r[key]);
     // The engine's own SI series (absolute pressure, volume from displacement) for the diagrams.
@@ -103,13 +108,14 @@ export class RunsService {
       projectName: project?.name,
       readings: {
         count: rows.length,
-        time: column('time'), pressure: column('pressure'), volume: column('volume'), displacement: column('displacement'),
+        time: rows.map((r) => r.time), pressure: column('pressure'), volume: column('volume'), displacement: column('displacement'),
         temperature: column('temperature'), voltage: column('voltage'), current: column('current'), power: column('power'),
       },
       series,
       balance: result ? { ...result, stale: result.computedAt < run.editedAt } : null,
       signatures: sigs,
       revisions,
+      ...offeredActions(context, result !== undefined && result.runVersion === run.version),
     };
   }
 
@@ -129,7 +135,7 @@ export class RunsService {
   }
 
   async create(person: SessionPerson, body: CreateRunDto, rows: readonly ReadingRow[] = [], ip: string | null = null) {
-    if (!['technician', 'assistant', 'investigator'].includes(person.role)) throw forbidden('Runs are written by technicians, assistants and investigators.');
+    if (!inRoleGroup(RUN_AUTHORS, person.role)) throw forbidden('Runs are written by technicians, assistants and investigators.');
     return this.db.transaction(async (tx) => {
       await this.checkReferences(tx, person, body);
       const code = await nextCode(tx, body.runDate);
@@ -173,7 +179,7 @@ export class RunsService {
       const header = await feed.header();
       const { time, channels } = header;
       return await this.db.transaction(async (tx) => {
-        const before = await loadRunFor(tx, person, id, 'replaceReadings', header.version);
+        const before = await loadRunFor(tx, person, id, 'edit', header.version);
         const old = await hashStoredReadings(tx, id);
         await tx.delete(readings).where(eq(readings.runId, id));
         await insertReadingChunks(tx, id, header, feed.chunks());

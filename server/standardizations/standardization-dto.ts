@@ -1,9 +1,10 @@
 import { ArrayMaxSize, ArrayMinSize, IsArray, IsInt, IsOptional, IsString, Length, Matches, Min } from 'class-validator';
 
+import { STANDARDIZATION_MEANINGS } from '../../contract/runs';
 import { SignatureFields } from '../runs/review-dto';
 
-/** What an approval of a standardization means, in the signer's choice of words from a fixed list. */
-export const standardizationMeanings = ['I have reviewed these standardization runs and approve the energy equivalent'] as const;
+/** What an approval of a standardization means, in the signer's choice of words from the contract's fixed list. */
+export const standardizationMeanings = STANDARDIZATION_MEANINGS;
 
 export class ApproveStandardizationDto extends SignatureFields {
   @IsArray({ message: 'runIds must be a list of run ids' }) @ArrayMinSize(1, { message: 'runIds must name at least one run' }) @ArrayMaxSize(200, { message: 'runIds names at most 200 runs' })

@@ -1,6 +1,8 @@
 // Standardization series of a calorimeter, their approval with an electronic signature, and changes to the
 // apparatus that make a new standardization due.
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import type { DueApparatus, StandardizationOverview } from '../../contract/api/standardizations';
+import type { Wire } from '../../contract/wire';
 import type { Database, DbOrTx } from '../../db/client';
 import { apparatus, apparatusChanges, people, standardizations } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
@@ -96,7 +98,7 @@ export class StandardizationService {
   }
 
   /** GET /api/apparatus/:id/standardizations */
-  async overview(apparatusId: number) {
+  async overview(apparatusId: number): Promise<Wire<StandardizationOverview>> {
     const app = await this.apparatusRow(this.db, apparatusId);
     const { runs, summary, segments } = await this.series(this.db, apparatusId);
     const history = await this.withSigner(await this.db.select().from(standardizations).where(eq(standardizations.apparatusId, apparatusId)).orderBy(desc(standardizations.signedAt), desc(standardizations.id)));
@@ -123,7 +125,7 @@ export class StandardizationService {
 
   /** POST /api/apparatus/:id/standardizations: the quality officer signs the mean ε of selected accepted runs. */
   async approve(person: SessionPerson, apparatusId: number, body: ApproveStandardizationDto, ip: string | null) {
-    if (!(standardizationMeanings as readonly string[]).includes(body.meaning)) {
+    if (!standardizationMeanings.includes(body.meaning)) {
       throw badRequest(`meaning must be one of: ${standardizationMeanings.map((m) => `"${m}"`).join(', ')}.`, [{ field: 'meaning', message: 'not a meaning for this approval' }]);
     }
     await this.apparatusRow(this.db, apparatusId);
@@ -174,7 +176,7 @@ export class StandardizationService {
   }
 
   /** Apparatus whose latest change has no standardization signed after it (for the homes). */
-  async due() {
+  async due(): Promise<Wire<DueApparatus[]>> {
     const rows = await this.db.select().from(apparatus).orderBy(asc(apparatus.tag));
     const out = [];
     for (const a of rows) {

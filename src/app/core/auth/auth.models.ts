@@ -1,16 +1,8 @@
-/** The five roles a person can hold in a Qwell lab. */
-export type Role = 'technician' | 'assistant' | 'investigator' | 'quality' | 'admin';
+import type { Role } from '@contract';
 
-export const ROLES: readonly Role[] = ['technician', 'assistant', 'investigator', 'quality', 'admin'];
-
-/** Names shown to people; the codes stay in the API. */
-export const ROLE_LABELS: Readonly<Record<Role, string>> = {
-  technician: 'Technician',
-  assistant: 'Student assistant',
-  investigator: 'Principal investigator',
-  quality: 'Quality officer',
-  admin: 'Administrator',
-};
+// The roles and their names are the contract's (contract/roles.ts), shared with the server.
+export { ROLES, ROLE_LABELS } from '@contract';
+export type { Role } from '@contract';
 
 /** The signed-in person, as `GET /api/auth/me` returns it. */
 export interface Person {

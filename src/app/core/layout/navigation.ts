@@ -1,3 +1,5 @@
+import { AUDIT_READERS, ROLES, RUN_AUTHORS, RUN_READERS } from '@contract';
+
 import { Role } from '../auth/auth.models';
 
 /** One entry of the side navigation. */
@@ -12,7 +14,7 @@ export interface NavEntry {
   roles: readonly Role[];
 }
 
-const EVERYONE: readonly Role[] = ['technician', 'assistant', 'investigator', 'quality', 'admin'];
+const EVERYONE: readonly Role[] = ROLES;
 
 /**
  * The one table of pages and who may open them: the side navigation is filtered from it, and
@@ -24,14 +26,14 @@ export const NAVIGATION = {
     path: '/runs',
     label: 'Runs',
     icon: 'science',
-    roles: ['technician', 'assistant', 'investigator', 'quality'],
+    roles: RUN_READERS,
   },
-  newRun: { path: '/runs/new', label: 'New run', icon: 'edit_note', roles: ['technician', 'assistant', 'investigator'] },
-  imports: { path: '/imports', label: 'Import', icon: 'upload_file', roles: ['technician', 'assistant', 'investigator'] },
+  newRun: { path: '/runs/new', label: 'New run', icon: 'edit_note', roles: RUN_AUTHORS },
+  imports: { path: '/imports', label: 'Import', icon: 'upload_file', roles: RUN_AUTHORS },
   instruments: { path: '/instruments', label: 'Instruments', icon: 'speed', roles: EVERYONE },
   apparatus: { path: '/apparatus', label: 'Apparatus', icon: 'propane_tank', roles: EVERYONE },
   gases: { path: '/gases', label: 'Gases', icon: 'bubble_chart', roles: EVERYONE },
-  audit: { path: '/audit', label: 'Audit trail', icon: 'policy', roles: ['investigator', 'quality'] },
+  audit: { path: '/audit', label: 'Audit trail', icon: 'policy', roles: AUDIT_READERS },
   people: { path: '/people', label: 'People', icon: 'group', roles: ['admin'] },
   projects: { path: '/projects', label: 'Projects', icon: 'folder_shared', roles: ['admin'] },
 } as const satisfies Record<string, NavEntry>;

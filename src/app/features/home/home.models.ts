@@ -1,23 +1,2 @@
-import { Params } from '@angular/router';
-
-import { Role } from '../../core/auth/auth.models';
-
-/** One of the person's work queues, with how many items wait in it. */
-export interface HomeQueue {
-  /** Stable code, e.g. `my-drafts`; picks the icon. */
-  key: string;
-  /** Shown as the tile's title. */
-  label: string;
-  /** Items waiting. */
-  count: number;
-  /** Router path of the page that lists them. */
-  link: string;
-  /** Filters for that page, e.g. `{ state: 'draft' }`. */
-  queryParams?: Params;
-}
-
-/** Body of `GET /api/home`. */
-export interface HomeSummary {
-  role: Role;
-  queues: HomeQueue[];
-}
+// `GET /api/home` is the contract's (contract/api/home.ts), shared with the server.
+export type { HomeQueue, HomeSummary } from '@contract';

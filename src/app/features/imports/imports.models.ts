@@ -1,8 +1,9 @@
-/** What a column of an upload holds: a reading channel, or the time of each reading. */
-export type ImportChannel = 'time' | 'pressure' | 'volume' | 'displacement' | 'temperature' | 'voltage' | 'current' | 'power';
-export type ReadingChannel = Exclude<ImportChannel, 'time'>;
-export type TimeUnit = 'ms' | 's' | 'min' | 'h' | 'iso';
-export type PressureReference = 'absolute' | 'gauge';
+import type { ImportChannel, ImportMapping, PressureReference, ReadingChannel } from '@contract';
+
+// Channels, their headings, the units each takes and the column mapping are the contract's
+// (contract/channels.ts, contract/api/imports.ts), shared with the server's row checks.
+export { CHANNEL_LABELS, IMPORT_CHANNELS, UNITS_BY_CHANNEL } from '@contract';
+export type { ImportChannel, ImportMapping, PressureReference, ReadingChannel, RunTimeUnit as TimeUnit } from '@contract';
 
 /** Qwell's guess for one column, read from its header (and its values for date-times). */
 export interface ColumnGuess {
@@ -21,11 +22,6 @@ export interface PreviewColumn {
   confidence: number;
 }
 
-/** How the columns become a run's readings; the server checks every row against it. */
-export interface ImportMapping {
-  time: { index: number; unit: TimeUnit };
-  columns: Array<{ index: number; channel: ReadingChannel; unit: string; reference?: PressureReference; instrumentId?: number }>;
-}
 
 /** One bad cell, where the spreadsheet program shows it. */
 export interface RowError {
@@ -103,32 +99,3 @@ export interface CommitResult {
   version: number;
   readings: number;
 }
-
-export const CHANNEL_LABELS: Readonly<Record<ImportChannel, string>> = {
-  time: 'Time',
-  pressure: 'Pressure',
-  volume: 'Volume',
-  displacement: 'Piston displacement',
-  temperature: 'Temperature',
-  voltage: 'Heater voltage',
-  current: 'Heater current',
-  power: 'Heater power',
-};
-
-export const IMPORT_CHANNELS = Object.keys(CHANNEL_LABELS) as ImportChannel[];
-
-/** Units each channel takes, as the server names them. */
-export const UNITS_BY_CHANNEL: Readonly<Record<ImportChannel, readonly string[]>> = {
-  time: ['s', 'ms', 'min', 'h', 'iso'],
-  pressure: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'],
-  volume: ['m3', 'L', 'mL', 'cm3'],
-  displacement: ['m', 'mm'],
-  temperature: ['K', 'degC', 'degF'],
-  voltage: ['V', 'mV'],
-  current: ['A', 'mA'],
-  power: ['W', 'mW'],
-};
-
-export const UNIT_LABELS: Readonly<Record<string, string>> = {
-  iso: 'date-time (ISO)', m3: 'm³', cm3: 'cm³', degC: '°C', degF: '°F', min: 'min', h: 'h',
-};

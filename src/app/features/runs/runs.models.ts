@@ -1,37 +1,11 @@
-import { Verdict } from '../../shared/verdict-display/verdict-display';
+import type { RunSort as ServerSort, RunState, Verdict } from '@contract';
 
-/** Where a run is in its workflow. */
-export type RunState = 'draft' | 'submitted' | 'approved' | 'returned' | 'rejected';
+// Run states, their labels and the list's rows are the contract's (contract/runs.ts, contract/api/runs.ts).
+export { RUN_STATES, RUN_STATE_LABELS } from '@contract';
+export type { RunPage, RunState, RunSummary } from '@contract';
 
-export const RUN_STATES: readonly RunState[] = ['draft', 'submitted', 'approved', 'returned', 'rejected'];
-
-export const RUN_STATE_LABELS: Readonly<Record<RunState, string>> = {
-  draft: 'Draft',
-  submitted: 'Submitted',
-  approved: 'Approved',
-  returned: 'Returned',
-  rejected: 'Rejected',
-};
-
-/** Columns the server sorts by. */
-export type RunSort = 'code' | 'title' | 'state' | 'updatedAt';
-
-/** One row of `GET /api/runs`. */
-export interface RunSummary {
-  id: number;
-  /** Lab's short reference, e.g. `R-2025-0042`. */
-  code: string;
-  title: string;
-  /** Process the run claims (isobaric, isothermal, …). */
-  process: string;
-  state: RunState;
-  /** Latest balance verdict; null before the first check. */
-  verdict: Verdict | null;
-  authorName: string;
-  projectName: string;
-  /** ISO 8601 timestamp of the last change. */
-  updatedAt: string;
-}
+/** Columns the run list offers to sort by (the server takes a few more). */
+export type RunSort = Extract<ServerSort, 'code' | 'title' | 'state' | 'updatedAt'>;
 
 /** Query of `GET /api/runs`; page is 1-based. */
 export interface RunQuery {
@@ -52,12 +26,4 @@ export interface RunQuery {
   to: string | null;
   sort: RunSort;
   dir: 'asc' | 'desc';
-}
-
-/** A page of runs. */
-export interface RunPage {
-  items: RunSummary[];
-  total: number;
-  page: number;
-  pageSize: number;
 }

@@ -1,8 +1,10 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 
-/** The engine's verdict on a run's energy balance; null until a balance has been computed. */
-export type Verdict = 'closes' | 'breaks' | 'indeterminate';
+import { VERDICT_LABELS, type Verdict } from '@contract';
+
+/** The engine's verdict on a run's energy balance (the contract's); null until a balance has been computed. */
+export type { Verdict };
 
 interface VerdictLook {
   icon: string;
@@ -14,17 +16,17 @@ interface VerdictLook {
 export const VERDICT_LOOKS: Readonly<Record<Verdict | 'none', VerdictLook>> = {
   closes: {
     icon: 'check_circle',
-    word: 'Closes',
+    word: VERDICT_LABELS.closes,
     meaning: 'Balance closes within its uncertainty',
   },
   breaks: {
     icon: 'cancel',
-    word: 'Breaks',
+    word: VERDICT_LABELS.breaks,
     meaning: 'Balance breaks: the residual exceeds its uncertainty',
   },
   indeterminate: {
     icon: 'help',
-    word: 'Indeterminate',
+    word: VERDICT_LABELS.indeterminate,
     meaning: 'Indeterminate: the uncertainty is too wide for the check to mean anything',
   },
   none: { icon: 'pending', word: 'Not checked', meaning: 'No balance computed yet' },

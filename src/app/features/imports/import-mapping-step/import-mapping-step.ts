@@ -6,6 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
+import { unitSymbol } from '@contract';
 import { catchError, of } from 'rxjs';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
@@ -22,7 +23,6 @@ import {
   PressureReference,
   RowError,
   UNITS_BY_CHANNEL,
-  UNIT_LABELS,
 } from '../imports.models';
 import { Confirmation } from '../../../shared/confirmation/confirmation';
 
@@ -77,7 +77,7 @@ export class ImportMappingStep {
   }
 
   protected unitLabel(unit: string): string {
-    return UNIT_LABELS[unit] ?? unit;
+    return unitSymbol(unit);
   }
 
   protected setChannel(index: number, channel: ImportChannel | null): void {

@@ -8,12 +8,13 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
+import { MIN_JUSTIFICATION, MIN_REVIEW_REASON, SIGNATURE_MEANINGS } from '@contract';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { WithUncertaintyPipe } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
 import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { RunsApi } from '../runs-api';
-import { BalanceResult, REVIEW_MEANINGS, ReviewAction, SignatureRequest } from '../run-detail.models';
+import { BalanceResult, ReviewAction, SignatureRequest } from '../run-detail.models';
 
 /** What the dialog signs. */
 export interface ReviewDialogData {
@@ -25,10 +26,6 @@ export interface ReviewDialogData {
   action: ReviewAction;
   result: BalanceResult;
 }
-
-/** Shortest reason the server takes for returning or rejecting, and for approving a breaking balance. */
-export const MIN_REASON = 5;
-export const MIN_JUSTIFICATION = 20;
 
 const ACTION_WORDS: Readonly<Record<ReviewAction, { title: string; button: string }>> = {
   approve: { title: 'Approve', button: 'Sign and approve' },
@@ -62,12 +59,13 @@ export class ReviewDialog {
   protected readonly data = inject<ReviewDialogData>(MAT_DIALOG_DATA);
 
   protected readonly words = ACTION_WORDS[this.data.action];
-  protected readonly meanings = REVIEW_MEANINGS[this.data.action];
+  /** Exactly the meanings the server accepts for this decision (the contract's list). */
+  protected readonly meanings = SIGNATURE_MEANINGS[this.data.action];
   /** Approving a balance that breaks, or a check that cannot tell, is allowed only with a written justification. */
   protected readonly needsJustification =
     this.data.action === 'approve' && (this.data.result.verdict === 'breaks' || this.data.result.verdict === 'indeterminate');
   protected readonly minReason =
-    this.needsJustification ? MIN_JUSTIFICATION : this.data.action === 'approve' ? 0 : MIN_REASON;
+    this.needsJustification ? MIN_JUSTIFICATION : this.data.action === 'approve' ? 0 : MIN_REVIEW_REASON;
   protected readonly reasonLabel = this.needsJustification
     ? 'Justification'
     : this.data.action === 'approve'

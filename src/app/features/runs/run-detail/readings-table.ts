@@ -1,18 +1,9 @@
 import { CdkVirtualScrollViewport, ScrollingModule } from '@angular/cdk/scrolling';
 import { ChangeDetectionStrategy, Component, computed, input, signal, viewChild } from '@angular/core';
 
-import { READING_CHANNELS, READING_SI_UNITS, ReadingChannel, RunReadings } from '../run-entry.models';
+import { CHANNEL_LABELS } from '@contract';
 
-const CHANNEL_LABELS: Readonly<Record<'time' | ReadingChannel, string>> = {
-  time: 'Time',
-  pressure: 'Pressure',
-  volume: 'Volume',
-  displacement: 'Displacement',
-  temperature: 'Temperature',
-  voltage: 'Voltage',
-  current: 'Current',
-  power: 'Power',
-};
+import { READING_CHANNELS, READING_SI_UNITS, RunReadings } from '../run-entry.models';
 
 /** Row height in px; the virtual scroll needs it fixed. */
 const ROW_HEIGHT = 32;

@@ -15,6 +15,16 @@ const run: RunRecord = {
   id: 2,
   code: 'R-2026-0002',
   revision: 1,
+  previousRevisionId: null,
+  revisionReason: null,
+  projectId: 4,
+  gasId: 1,
+  apparatusId: 3,
+  submittedAt: '2026-03-14T09:30:00Z',
+  decidedAt: null,
+  editedAt: '2026-03-14T09:20:00Z',
+  createdAt: '2026-03-14T09:00:00Z',
+  updatedAt: '2026-03-14T10:00:00Z',
   title: 'Rapid adiabatic expansion of dry air',
   process: 'adiabatic',
   state: 'submitted',
@@ -48,6 +58,9 @@ const run: RunRecord = {
   balance: { id: 2, runVersion: 3, verdict: 'closes', en: 0.015, computedAt: '2026-03-14T10:00:00Z', stale: false },
   signatures: [],
   revisions: [{ id: 2, revision: 1, state: 'submitted', revisionReason: null, createdAt: '2026-03-14T09:00:00Z' }],
+  // What the server offers a reviewing investigator of the project (server/runs/run-state-machine.ts).
+  actions: ['approve', 'return', 'reject'],
+  reviewNote: null,
 };
 
 const result = {
@@ -75,7 +88,7 @@ const result = {
   inputHash: 'abc',
 } as unknown as BalanceResult;
 
-const balance: BalanceResponse = { runVersion: 3, currentRunVersion: 3, stale: false, computedAt: '2026-03-14T10:00:00Z', result, why: null };
+const balance: BalanceResponse = { id: 2, runId: 2, runVersion: 3, currentRunVersion: 3, stale: false, computedAt: '2026-03-14T10:00:00Z', result, why: null };
 
 describe('RunDetail', () => {
   // The first test compiles the lazy run page and its charts; on a busy 2-core machine that can pass 5 s.
@@ -95,8 +108,8 @@ describe('RunDetail', () => {
     await harness.navigateByUrl('/runs/2');
   }
 
-  async function answer(withBalance: boolean): Promise<void> {
-    httpTesting.expectOne('/api/runs/2').flush(run);
+  async function answer(withBalance: boolean, read: RunRecord = run): Promise<void> {
+    httpTesting.expectOne('/api/runs/2').flush(read);
     const balanceRequest = httpTesting.expectOne('/api/runs/2/balance');
     if (withBalance) {
       balanceRequest.flush(balance);
@@ -172,31 +185,41 @@ describe('RunDetail', () => {
     expect(alert?.classList.contains('safety')).toBe(false);
   });
 
-  it('offers approve, return and reject to an investigator who did not write the run', async () => {
+  const actionButtons = () => [
+    ...buttons().filter((text) => /Approve|Reject|Return for correction|Correct this run/.test(text)),
+    ...Array.from(page().querySelectorAll('.actions a')).map((link) => link.textContent?.trim() ?? '').filter((text) => /Edit/.test(text)),
+  ];
+
+  it('offers approve, return and reject when the server lists them', async () => {
     await openAs('investigator', 3);
     await answer(true);
 
-    expect(buttons()).toEqual(expect.arrayContaining(['verified Approve', 'undo Return for correction', 'block Reject']));
+    expect(actionButtons()).toEqual(['verified Approve', 'undo Return for correction', 'block Reject']);
   });
 
-  it('hides the review buttons from the author and says why', async () => {
+  it('shows no review to the author, and the reason the server gives', async () => {
     await openAs('investigator', 1);
-    await answer(true);
+    await answer(true, { ...run, actions: [], reviewNote: 'You wrote this run, so another investigator of the project reviews it.' });
 
-    expect(buttons().some((text) => /Approve|Reject|Return for correction/.test(text))).toBe(false);
-    expect(page().textContent).toContain('You wrote this run');
+    expect(actionButtons()).toEqual([]);
+    expect(page().textContent).toContain('You wrote this run, so another investigator of the project reviews it.');
   });
 
-  it('hides the review buttons from a technician', async () => {
-    await openAs('technician', 9);
-    await answer(true);
+  it('shows exactly the actions the server lists, whatever the role says', async () => {
+    await openAs('technician', 1);
+    await answer(true, { ...run, state: 'returned', actions: ['edit', 'submit'] });
+    expect(actionButtons()).toEqual(['edit Edit']);
+  });
 
-    expect(buttons().some((text) => /Approve|Reject|Return for correction/.test(text))).toBe(false);
+  it('offers the correction of an approved run when the server lists it', async () => {
+    await openAs('assistant', 9);
+    await answer(true, { ...run, state: 'approved', actions: ['correct'] });
+    expect(actionButtons()).toEqual(['edit_document Correct this run']);
   });
 
   it("says the run is being checked when /balance answers 404, and offers no review", async () => {
     await openAs('investigator', 3);
-    await answer(false);
+    await answer(false, { ...run, actions: [], reviewNote: 'The review opens once the balance check has stored its result for this version of the run.' });
 
     expect(page().textContent).toContain('Run R-2026-0002 is being checked; its result appears here shortly.');
     expect(page().querySelector('qw-balance-card')).toBeNull();
@@ -208,7 +231,7 @@ describe('RunDetail', () => {
     try {
       await openAs('investigator', 3);
       const announce = jest.spyOn(TestBed.inject(LiveAnnouncer), 'announce').mockResolvedValue();
-      const checking = { ...run, verdict: null, balance: null };
+      const checking = { ...run, verdict: null, balance: null, actions: [], reviewNote: 'The review opens once the balance check has stored its result for this version of the run.' };
       httpTesting.expectOne('/api/runs/2').flush(checking);
       httpTesting
         .expectOne('/api/runs/2/balance')

@@ -9,14 +9,13 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { BehaviorSubject, Observable, catchError, combineLatest, map, of, switchMap } from 'rxjs';
 
-import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { BackoffPoll } from '../../../shared/polling/backoff-poll';
 import { VERDICT_LOOKS, VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { ReviewDialog, ReviewDialogData } from '../review-dialog/review-dialog';
 import { RunsApi } from '../runs-api';
 import { RUN_STATE_LABELS, RunState } from '../runs.models';
-import { BalanceResponse, HistoryEvent, ReviewAction, RunRecord } from '../run-detail.models';
+import { BalanceResponse, HistoryEvent, ReviewAction, RunAction, RunRecord } from '../run-detail.models';
 import { CalorimetryCard } from './calorimetry-card';
 import { BalanceCard } from './balance-card';
 import { BudgetTable } from './budget-table';
@@ -41,8 +40,6 @@ const DONE_WORDS: Readonly<Record<ReviewAction, string>> = {
   return: 'returned for correction',
   reject: 'rejected',
 };
-
-const WRITERS = ['technician', 'assistant', 'investigator'];
 
 type Loaded<T> = { value: T } | { problem: ProblemDetails };
 
@@ -78,7 +75,6 @@ function attempt<T>(request: Observable<T>): Observable<Loaded<T>> {
 })
 export class RunDetail {
   private readonly api = inject(RunsApi);
-  private readonly auth = inject(Auth);
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
   private readonly announcer = inject(LiveAnnouncer);
@@ -159,36 +155,10 @@ export class RunDetail {
     };
   });
 
-  /** Why the review buttons are missing for an investigator, or null when they show. */
-  protected readonly reviewBlock = computed((): string | null => {
-    const run = this.run();
-    const person = this.auth.person();
-    if (!run || person?.role !== 'investigator' || run.state !== 'submitted') {
-      return null;
-    }
-    if (person.id === run.authorId) {
-      return 'You wrote this run, so another investigator of the project reviews it.';
-    }
-    const balance = this.balance();
-    if (!balance) {
-      return 'The review opens once the balance check has stored its result.';
-    }
-    return balance.stale ? 'The stored result is older than the run; the review opens once it is checked again.' : null;
-  });
-  protected readonly canReview = computed(
-    () =>
-      this.auth.person()?.role === 'investigator' &&
-      this.run()?.state === 'submitted' &&
-      this.balance() !== null &&
-      this.reviewBlock() === null,
-  );
-  protected readonly canCorrect = computed(
-    () => this.run()?.state === 'approved' && WRITERS.includes(this.auth.person()?.role ?? ''),
-  );
-  protected readonly canEdit = computed(() => {
-    const run = this.run();
-    return !!run && (run.state === 'draft' || run.state === 'returned') && run.authorId === this.auth.person()?.id;
-  });
+  /** The actions the server's workflow table offers the signed-in person on this run, and nothing else. */
+  protected readonly actions = computed((): ReadonlySet<RunAction> => new Set(this.run()?.actions ?? []));
+  /** The server's word on why an investigator of the project is not offered the review yet. */
+  protected readonly reviewNote = computed(() => this.run()?.reviewNote ?? null);
 
   constructor() {
     // Not shared: each of the three requests subscribes on its own and gets the current id at once.

@@ -19,17 +19,6 @@ export type GasModel = 'species' | 'equipartition' | 'calorimeter';
 export type AmountFrom = 'none' | 'moles' | 'mass' | 'initialState';
 export type TimeUnit = 'ms' | 's' | 'min' | 'h';
 
-/** Headings of the channels, as the grid and the form name them. */
-export const CHANNEL_LABELS: Readonly<Record<ReadingChannel, string>> = {
-  pressure: 'Pressure',
-  volume: 'Volume',
-  displacement: 'Piston displacement',
-  temperature: 'Temperature',
-  voltage: 'Heater voltage',
-  current: 'Heater current',
-  power: 'Heater power',
-};
-
 function channelGroup(name: ReadingChannel) {
   return new FormGroup({
     enabled: new FormControl(false, { nonNullable: true }),

@@ -12,6 +12,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
+import { CHANNEL_LABELS } from '@contract';
 import { firstValueFrom, forkJoin, map, merge } from 'rxjs';
 
 import { HeadingFocus } from '../../../core/layout/heading-focus';
@@ -33,7 +34,7 @@ import { InstrumentPicker } from './instrument-picker/instrument-picker';
 import { GridColumn, ReadingsGrid } from './readings-grid/readings-grid';
 import { ReadingsSheet } from './readings-grid/readings-sheet';
 import { AutosaveSource, RunAutosave } from './run-autosave';
-import { CHANNEL_LABELS, RULE_MESSAGES, createBody, createRunForm, enabledChannels, loadDraft, readingsBody, updateBody } from './run-entry-form';
+import { RULE_MESSAGES, createBody, createRunForm, enabledChannels, loadDraft, readingsBody, updateBody } from './run-entry-form';
 import { SafetyNotices } from './safety-notices/safety-notices';
 import { problemSentence } from './submit-problems';
 import { CHANNEL_KINDS, toSi, unitLabel, unitsOf } from './unit-table';

@@ -1,5 +1,6 @@
+import { CHANNEL_LABELS } from '@contract';
+
 import { FieldProblem } from '../../../core/http/problem-details';
-import { CHANNEL_LABELS } from './run-entry-form';
 import { ReadingChannel } from '../run-entry.models';
 
 const FIXED: Readonly<Record<string, string>> = {
