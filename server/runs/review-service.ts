@@ -9,7 +9,8 @@ import { queueMail } from '../mail/outbox';
 import { runLink } from '../mail/run-link';
 import { loadRunFor } from './run-access';
 import { loadReadings } from './run-loader';
-import { MIN_JUSTIFICATION, MIN_REVIEW_REASON, SIGNATURE_MEANINGS } from '../../contract/runs';
+import { MIN_JUSTIFICATION, MIN_REVIEW_REASON } from '../../contract/runs';
+import { meaningsAccepted } from './signature-meanings';
 import type { ReviewAction, SignatureDto } from './review-dto';
 import { nextState } from './run-state-machine';
 import { signedHash } from './signature-hash';
@@ -26,8 +27,8 @@ export class ReviewService {
    * some cases a reason. The signature names the SHA-256 of the run and result that were on screen.
    */
   async decide(person: SessionPerson, id: number, action: ReviewAction, body: SignatureDto, ip: string | null) {
-    if (!SIGNATURE_MEANINGS[action].includes(body.meaning)) {
-      throw badRequest(`meaning must be one of: ${SIGNATURE_MEANINGS[action].map((m) => `"${m}"`).join(', ')}.`, [{ field: 'meaning', message: 'not a meaning for this action' }]);
+    if (!meaningsAccepted(action).includes(body.meaning)) {
+      throw badRequest(`meaning must be one of: ${meaningsAccepted(action).map((m) => `"${m}"`).join(', ')}.`, [{ field: 'meaning', message: 'not a meaning for this action' }]);
     }
     const reason = body.reason?.trim() ?? '';
     if ((action === 'return' || action === 'reject') && reason.length < MIN_REVIEW_REASON) {

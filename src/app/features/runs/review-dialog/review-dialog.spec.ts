@@ -9,7 +9,11 @@ import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 
-import { BalanceResult, REVIEW_MEANINGS, ReviewAction } from '../run-detail.models';
+import { SIGNATURE_MEANINGS } from '@contract';
+
+// The rule the server validates a signature's meaning with (pure; imported here so this spec fails when it changes).
+import { meaningsAccepted } from '../../../../../server/runs/signature-meanings';
+import { BalanceResult, ReviewAction } from '../run-detail.models';
 import { ReviewDialog, ReviewDialogData } from './review-dialog';
 
 function resultWith(verdict: BalanceResult['verdict'], En: number): BalanceResult {
@@ -65,10 +69,10 @@ describe('ReviewDialog', () => {
   });
 
   it.each([
-    ['approve', REVIEW_MEANINGS.approve],
-    ['return', REVIEW_MEANINGS.return],
-    ['reject', REVIEW_MEANINGS.reject],
-  ] as const)('offers only the meanings the server accepts for %s', async (action, meanings) => {
+    ['approve', meaningsAccepted('approve')],
+    ['return', meaningsAccepted('return')],
+    ['reject', meaningsAccepted('reject')],
+  ] as const)('offers exactly the meanings the server accepts for %s', async (action, meanings) => {
     await open(action);
     const select = await loader.getHarness(MatSelectHarness);
     await select.open();
@@ -84,7 +88,7 @@ describe('ReviewDialog', () => {
     await (await password()).setValue('secret-pass');
     const select = await loader.getHarness(MatSelectHarness);
     await select.open();
-    await select.clickOptions({ text: REVIEW_MEANINGS.approve[0] });
+    await select.clickOptions({ text: SIGNATURE_MEANINGS.approve[0] });
     await (await reason()).setValue('Too short.');
     await (await signButton()).click();
 
@@ -97,7 +101,7 @@ describe('ReviewDialog', () => {
     expect(request.request.body).toEqual({
       version: 4,
       password: 'secret-pass',
-      meaning: REVIEW_MEANINGS.approve[0],
+      meaning: SIGNATURE_MEANINGS.approve[0],
       reason: 'Heat leak known from the cooling curve of BC-1.',
     });
     request.flush({ state: 'approved' });
@@ -126,7 +130,7 @@ describe('ReviewDialog', () => {
     expect(request.request.body).toEqual({
       version: 4,
       password: 'pa55word!',
-      meaning: REVIEW_MEANINGS.return[0],
+      meaning: SIGNATURE_MEANINGS.return[0],
       reason: 'Ambient pressure is missing.',
     });
     request.flush({ state: 'returned' });
