@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import { balanceResults, projects, runs } from '../../db/schema';
 import type { RunState } from '../../contract/runs';
-import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../testing/api-harness';
+import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 
 // GET /api/runs/:id lists the actions the signed-in person may take, from the server's workflow table
 // (run-state-machine.ts); the client shows exactly these. States are set in the database directly so each
