@@ -5,6 +5,7 @@ import { dirname, join, relative, resolve, sep } from 'node:path';
 // folder (testing/): harnesses seed people with known passwords, start catchers and fuzz writes.
 // The demo seed and the migration runner are entry points that use the server's modules, so the
 // server never imports db/seed; the schema and the client are the bottom and import no server code.
+// The contract (contract/) is the other bottom: the Angular client and the server both import it.
 const root = resolve(__dirname, '..');
 
 function sourceFiles(dir: string): string[] {
@@ -66,5 +67,14 @@ describe('import direction', () => {
   it('routers are mounted, never imported for their helpers: only app.ts and routes.ts import a router', () => {
     const mounts = [join('server', 'app.ts'), join('server', 'routes.ts')];
     expect(offenders(['server', 'db', 'tools'], (target, file) => /-router$/.test(target) && !mounts.includes(file))).toEqual([]);
+  });
+
+  it('the contract shared by client and server imports nothing but itself (client → contract ← server)', () => {
+    expect(offenders(['contract'], (target) => !under('contract')(target))).toEqual([]);
+    // Nor any package: both builds compile it, so it holds types and constant tables only.
+    const packages = sourceFiles(join(root, 'contract')).flatMap((file) =>
+      [...readFileSync(file, 'utf8').matchAll(/(?:\bfrom\s*|\bimport\s*\(\s*|\brequire\s*\(\s*|^\s*import\s+)['"]([^'".][^'"]*)['"]/gm)]
+        .map((m) => `${relative(root, file)} → ${m[1]}`));
+    expect(packages).toEqual([]);
   });
 });
