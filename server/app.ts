@@ -19,6 +19,7 @@ import { healthRouter } from './health/health-router';
 import type { JobQueue } from './jobs/job-queue';
 import { apiRoutes } from './routes';
 import { isReadingsPut } from './runs/readings-body';
+import { isBalancePost } from './balance/balance-body';
 
 /** Builds the Express app: security, logging, routers, then the API 404 and the one error handler. */
 export function createApp(config: Config, handle: DbHandle, queue: JobQueue | null = null): Express {
@@ -50,10 +51,11 @@ export function createApp(config: Config, handle: DbHandle, queue: JobQueue | nu
       next();
     });
   app.use(cookieParser());
-  // Readings replaced in one PUT may be large (10⁶ time points); that route parses its own body,
-  // after the sign-in and role checks (server/runs/readings-body.ts). Every other body: 20 MB at most.
+  // Readings replaced in one PUT may be large (10⁶ time points), and so may a document sent for a
+  // stateless check: those routes read their own bodies after the sign-in and role checks, large ones
+  // in a worker thread (server/runs/readings-body.ts, server/balance/balance-body.ts). Every other body: 20 MB at most.
   const json = express.json({ limit: '20mb' });
-  app.use((req, res, next) => (isReadingsPut(req) ? next() : json(req, res, next)));
+  app.use((req, res, next) => (isReadingsPut(req) || isBalancePost(req) ? next() : json(req, res, next)));
   // Before any router: NUL and other control characters, bodies nested too deep and prototype keys are refused.
   app.use('/api', inputHygiene);
 
