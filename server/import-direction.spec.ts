@@ -64,6 +64,21 @@ describe('import direction', () => {
     expect(offenders(['server', 'db', 'tools'], (target, file) => target === service && file !== router)).toEqual([]);
   });
 
+  it('the contract (contract/) imports only itself: no package, no client, no server code', () => {
+    const files = sourceFiles(join(root, 'contract'));
+    expect(files.length).toBeGreaterThan(3);
+    const named = files.flatMap((file) => {
+      const text = readFileSync(file, 'utf8');
+      return [...text.matchAll(/(?:\bfrom\s*|^\s*import\s+)['"]([^'"]+)['"]/gm)].map((m) => ({ file, spec: m[1] }));
+    });
+    const outside = named.filter(({ file, spec }) => !spec.startsWith('.') || !under('contract')(relative(root, resolve(dirname(file), spec))));
+    expect(outside.map(({ file, spec }) => `${relative(root, file)} → ${spec}`)).toEqual([]);
+  });
+
+  it('the client reads the server only through the contract: no production file under src/ imports server/ or db/', () => {
+    expect(offenders(['src'], (target) => under('server')(target) || under('db')(target))).toEqual([]);
+  });
+
   it('routers are mounted, never imported for their helpers: only app.ts and routes.ts import a router', () => {
     const mounts = [join('server', 'app.ts'), join('server', 'routes.ts')];
     expect(offenders(['server', 'db', 'tools'], (target, file) => /-router$/.test(target) && !mounts.includes(file))).toEqual([]);
