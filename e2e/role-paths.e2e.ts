@@ -1,3 +1,4 @@
+import { SIGNATURE_MEANINGS } from '../contract/runs';
 import { DEFAULT_DEMO_PASSWORD } from '../db/seed/demo-lab';
 import { openBrowser, screenshot, type Session } from './support/browser';
 import { BASE_URL } from './support/server-process';
@@ -106,8 +107,8 @@ describe('an investigator', () => {
     await dialog.waitFor({ state: 'detached', timeout: SERVER_WAIT_MS });
     await page.getByRole('button', { name: /Approve/ }).first().waitFor({ state: 'detached', timeout: SERVER_WAIT_MS });
     await page.getByText(/approved/i).first().waitFor();
-    // The signature is listed with its meaning.
-    await page.getByText('I have reviewed this run and approve its results').first().waitFor();
+    // The signature is listed with its meaning, word for word the contract's.
+    await page.getByText(SIGNATURE_MEANINGS.approve[0]).first().waitFor();
   }, 4 * SERVER_WAIT_MS);
 });
 

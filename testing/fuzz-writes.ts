@@ -5,7 +5,7 @@ import fc from 'fast-check';
 import type { Database } from '../db/client';
 import { apparatus, balanceResults, instruments, people, projectMembers, projects, runs } from '../db/schema';
 import { demoEmail } from '../db/seed/demo-lab';
-import { approvalMeanings } from '../server/runs/review-dto';
+import { approvalMeanings, returnMeanings } from '../server/runs/review-dto';
 import { standardizationMeanings } from '../server/standardizations/standardization-dto';
 import { ApiClient, DEMO_PASSWORD } from './api-harness';
 import { loadFixture, runBodies } from './fixture-runs';
@@ -40,7 +40,7 @@ export const fuzzTargets: FuzzTarget[] = [
   { method: 'PUT', path: '/api/runs/:draft/readings', actor: 'fuzzTechnician', valid: (ids) => ({ version: CURRENT_VERSION, ...runBodies(fixture, ids[':project']).readings }) },
   { method: 'POST', path: '/api/runs/:draft/submit', actor: 'fuzzTechnician', valid: () => ({ version: CURRENT_VERSION }) },
   { method: 'POST', path: '/api/runs/:submitted/approve', actor: 'fuzzInvestigator', valid: () => ({ version: CURRENT_VERSION, password: FUZZ_PASSWORD, meaning: approvalMeanings[0] }) },
-  { method: 'POST', path: '/api/runs/:submitted/return', actor: 'fuzzInvestigator', valid: () => ({ version: CURRENT_VERSION, password: FUZZ_PASSWORD, meaning: 'I have reviewed this run and return it for correction', reason: 'The heater current channel is missing its instrument.' }) },
+  { method: 'POST', path: '/api/runs/:submitted/return', actor: 'fuzzInvestigator', valid: () => ({ version: CURRENT_VERSION, password: FUZZ_PASSWORD, meaning: returnMeanings[0], reason: 'The heater current channel is missing its instrument.' }) },
   { method: 'POST', path: '/api/runs/:approved/revisions', actor: 'fuzzTechnician', valid: () => ({ reason: 'Correct the ambient temperature' }) },
   { method: 'POST', path: '/api/instruments', actor: 'quality', valid: (ids) => ({ tag: `FZ-PT-${ids[':project']}`, name: 'Fuzz pressure transducer', kind: 'pressure', unit: 'kPa', rangeMin: 0, rangeMax: 700, spec: { percentOfReading: 0.1 } }) },
   { method: 'POST', path: '/api/instruments/:instrument/calibrations', actor: 'quality', valid: () => ({ calibratedOn: '2026-01-10', dueOn: '2027-01-10', certificate: 'FZ-CERT-1', expandedUncertainty: 0.2, coverageFactor: 2 }) },

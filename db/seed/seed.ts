@@ -1,3 +1,4 @@
+import { RUN_AUTHORS } from '../../contract/roles';
 import bcrypt from 'bcryptjs';
 import { count, sql } from 'drizzle-orm';
 import type { Database } from '../client';
@@ -30,7 +31,7 @@ export async function seedDemoLab(db: Database, password: string): Promise<boole
     const projectRows = await tx.insert(projects).values(demoProjects).returning();
     await tx.insert(projectMembers).values(
       projectRows.flatMap((project) =>
-        (['technician', 'assistant', 'investigator'] as const).map((role) => ({ projectId: project.id, personId: byRole[role].id })),
+        RUN_AUTHORS.map((role) => ({ projectId: project.id, personId: byRole[role].id })),
       ),
     );
     await tx.insert(gases).values(demoGases);

@@ -2,6 +2,8 @@
 // as a field-by-field difference. Pure: the names and codes are looked up by audit-names.ts.
 import { ROLE_LABELS } from '../../contract/roles';
 import { RUN_STATE_LABELS, VERDICT_LABELS } from '../../contract/runs';
+import { CHANNEL_LABELS } from '../../contract/channels';
+import { UNIT_SYMBOLS } from '../../contract/units';
 
 /** One term for the kind of record an event touched, shown as "record type" everywhere. */
 export const RECORD_TYPE_LABELS: Readonly<Record<string, string>> = {
@@ -70,15 +72,12 @@ const VALUE_WORDS: Readonly<Record<string, Readonly<Record<string, string>>>> = 
   verdict: VERDICT_LABELS,
   active: { true: 'active', false: 'deactivated' },
   // Units as people write them (the stored codes are ASCII).
-  unit: { degC: '°C', degF: '°F', m3: 'm³', cm3: 'cm³', cal_th: 'cal (thermochemical)', 'cal_th/K': 'cal (thermochemical)/K', iso: 'date and time' },
+  unit: { ...UNIT_SYMBOLS, cal_th: 'cal (thermochemical)', 'cal_th/K': 'cal (thermochemical)/K', iso: 'date and time' },
   reference: { absolute: 'absolute', gauge: 'gauge (above the barometric pressure)' },
 };
 
-/** Words for the run's reading channels, as the entry form names them. */
-const CHANNEL_WORDS: Readonly<Record<string, string>> = {
-  pressure: 'Pressure', volume: 'Volume', displacement: 'Piston displacement', temperature: 'Temperature',
-  voltage: 'Heater voltage', current: 'Heater current', power: 'Heater power', time: 'Time',
-};
+/** Words for the run's reading channels, as the entry form names them (the contract's headings). */
+const CHANNEL_WORDS: Readonly<Record<string, string>> = CHANNEL_LABELS;
 
 /** Fields whose path says little to a person, by their label on the screens. */
 const PATH_LABELS: Readonly<Record<string, string>> = {

@@ -1,6 +1,7 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { RouterLink } from '@angular/router';
+import { VERDICT_LABELS } from '@contract';
 
 import { RUN_STATE_LABELS } from '../runs.models';
 import { HistoryEvent, RunRevision, RunSignature } from '../run-detail.models';
@@ -23,7 +24,7 @@ const ACTION_LABELS: Readonly<Record<string, string>> = {
   'seed.run': 'Loaded the run with the demo lab',
 };
 
-const VERDICT_WORDS: Readonly<Record<string, string>> = { closes: 'Closes', breaks: 'Breaks', indeterminate: 'Indeterminate' };
+const VERDICT_WORDS: Readonly<Record<string, string>> = VERDICT_LABELS;
 
 const SIGNATURE_LABELS: Readonly<Record<string, string>> = {
   approve: 'Approved',
