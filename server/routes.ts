@@ -30,6 +30,6 @@ export function apiRoutes(db: Database, config: Config, queue: JobQueue | null):
   router.use('/gases', gasesRouter(db));
   router.use('/apparatus', apparatusRouter(db));
   // Standardizations answer /apparatus/:id/standardizations, /apparatus/:id/changes and /apparatus-due.
-  router.use('/', standardizationRouter(db));
+  router.use('/', standardizationRouter(db, config));
   return router;
 }

@@ -77,6 +77,8 @@ export interface StandardizationOverview {
   segments: ChartSegment[];
   summary: { n: number; days: number; mean: number | null; sd: number | null; uMean: number | null; rsd: number | null; acceptance: { ok: boolean; reasons: string[] } };
   rule: AcceptanceRule;
+  /** The lab setting QWELL_USE_FITTED_HEAT_LOSS: runs use the standardization's fitted h (else the register's). */
+  useFittedHeatLoss: boolean;
   history: Standardization[];
   changes: ApparatusChange[];
 }

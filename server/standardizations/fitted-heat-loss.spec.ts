@@ -65,6 +65,14 @@ describe('QWELL_USE_FITTED_HEAT_LOSS', () => {
     expect(on.apparatus?.heatCapacity).toEqual({ value: 4500, unit: 'J/K', u: 4 });
   });
 
+  it('is shown on the apparatus overview, so the page can say whether runs use the fitted h', async () => {
+    const [run] = await h.handle.db.select({ apparatusId: runs.apparatusId }).from(runs).where(eq(runs.id, runId));
+    const res = await (await clientAs(h.app, 'technician')).get(`/api/apparatus/${run.apparatusId}/standardizations`);
+    expect(res.status).toBe(200);
+    expect(res.body.useFittedHeatLoss).toBe(h.config.useFittedHeatLoss);
+    expect(res.body.current.heatLossCoefficient).toEqual(FITTED_H);
+  });
+
   it('makes the stored balance use the fitted h (the leak scales with h) and record that it did', async () => {
     const off = await check(false);
     const on = await check(true);

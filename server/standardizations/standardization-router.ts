@@ -1,5 +1,6 @@
 import { Router } from 'express';
 import type { Database } from '../../db/client';
+import type { Config } from '../config';
 import { roles } from '../../db/schema';
 import { idParam } from '../core/route-params';
 import { requireRole } from '../core/session';
@@ -9,9 +10,9 @@ import { StandardizationService } from './standardization-service';
 import { acceptanceRuleFromEnv } from './standardization-settings';
 
 /** Standardizations of an apparatus and changes to it: everyone reads, quality officers sign and record. */
-export function standardizationRouter(db: Database): Router {
+export function standardizationRouter(db: Database, config: Pick<Config, 'useFittedHeatLoss'>): Router {
   const router = Router();
-  const service = new StandardizationService(db, acceptanceRuleFromEnv());
+  const service = new StandardizationService(db, acceptanceRuleFromEnv(), config.useFittedHeatLoss);
 
   router.get('/apparatus-due', requireRole(...roles), async (_req, res) => {
     res.json({ items: await service.due() });

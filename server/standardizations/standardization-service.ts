@@ -47,7 +47,8 @@ type RawRun = { id: number; code: string; run_date: string; created_at: string; 
 const round = (x: number) => (Number.isFinite(x) ? x : null);
 
 export class StandardizationService {
-  constructor(private readonly db: Database, private readonly rule: AcceptanceRule) {}
+  /** @param useFittedHeatLoss the lab setting QWELL_USE_FITTED_HEAT_LOSS, shown on the apparatus page. */
+  constructor(private readonly db: Database, private readonly rule: AcceptanceRule, private readonly useFittedHeatLoss = false) {}
 
   private async apparatusRow(db: DbOrTx, id: number) {
     const [row] = await db.select().from(apparatus).where(eq(apparatus.id, id));
@@ -118,6 +119,7 @@ export class StandardizationService {
       segments,
       summary: { n: summary.n, days: summary.days, mean: round(summary.mean), sd: round(summary.sd), uMean: round(summary.uMean), rsd: round(summary.rsd), acceptance: summary.acceptance },
       rule: this.rule,
+      useFittedHeatLoss: this.useFittedHeatLoss,
       history,
       changes: changes.map((c) => ({ ...c, recordedAt: c.recordedAt.toISOString() })),
     };

@@ -30,6 +30,7 @@ const overview: StandardizationOverview = {
   ],
   summary: { n: 2, days: 2, mean: 4905.2, sd: 1.56, uMean: 1.1, rsd: 0.0003, acceptance: { ok: false, reasons: ['2 run(s); the lab\'s rule asks for at least 6'] } },
   rule: { minRuns: 6, minDays: 3, maxRsd: 0.005 },
+  useFittedHeatLoss: false,
   history: [],
   changes: [],
 };
@@ -55,7 +56,7 @@ describe('ApparatusStandardization', () => {
 
   it('prints ε and the fitted h with u to two significant digits and the value to the same place (GUM 7.2.6)', () => {
     expect(text()).toContain('ε = 4851.7 ± 4.6 J/K');
-    expect(text()).toContain('Fitted heat-loss coefficient h = 0.12050 ± 0.00042 W/K.');
+    expect(text()).toContain('Fitted heat-loss coefficient h = 0.12050 ± 0.00042 W/K: shown only; runs use the h in the register');
     expect(text()).toContain('4904.1 ± 4.1');
   });
 
