@@ -52,6 +52,13 @@ async function checkScreen(page: Page, name: string): Promise<void> {
   await page.setViewportSize({ width: 1366, height: 900 });
 }
 
+/** The calorimetric demo run's first temperature as it was entered (°C, with the column's decimals). */
+function doc2Temperature(): string {
+  const values = loadFixture('calorimetric').readings.temperature.values;
+  const decimals = Math.max(...values.map((v) => (String(v).split('.')[1] ?? '').length));
+  return values[0].toFixed(decimals);
+}
+
 /** A screenshot of one chart (the page scrolls inside its own container, so a full-page shot misses it). */
 async function chartShot(page: Page, selector: string, name: string): Promise<void> {
   const chart = page.locator(selector);
@@ -129,6 +136,18 @@ describe('a technician, on the charts and the pressure alert', () => {
       await page.setViewportSize({ width, height: 844 });
       await chartShot(page, 'qw-time-charts', `run-page-power-chart-${width}`);
     }
+    // Readings as entered (°C, mA, with their digits), SI on demand.
+    const table = page.locator('qw-readings-table');
+    expect(await table.getByRole('columnheader').allTextContents()).toEqual(expect.arrayContaining(['Temperature (°C)', 'Current (mA)']));
+    const firstTemperature = doc2Temperature();
+    await table.getByRole('cell', { name: firstTemperature, exact: true }).first().waitFor();
+    for (const width of [1366, 390]) {
+      await page.setViewportSize({ width, height: 844 });
+      await chartShot(page, 'qw-readings-table', `run-page-readings-${width}`);
+    }
+    await table.getByRole('button', { name: 'Show in SI units' }).click();
+    await table.getByRole('columnheader', { name: 'Temperature (K)' }).waitFor();
+    await chartShot(page, 'qw-readings-table', 'run-page-readings-si-390');
   });
 });
 

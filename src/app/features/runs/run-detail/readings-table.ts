@@ -1,19 +1,51 @@
 import { CdkVirtualScrollViewport, ScrollingModule } from '@angular/cdk/scrolling';
 import { ChangeDetectionStrategy, Component, computed, input, signal, viewChild } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
 
 import { CHANNEL_LABELS } from '@contract';
-
-import { READING_CHANNELS, READING_SI_UNITS, RunReadings } from '../run-entry.models';
+import { READING_CHANNELS, READING_SI_UNITS, ReadingChannel, RunReadings, RunSetup } from '../run-entry.models';
+import { CHANNEL_KINDS, UnitKind, displayFromSi, fromSi, unitLabel, unitsOf } from '../run-entry/unit-table';
 
 /** Row height in px; the virtual scroll needs it fixed. */
 const ROW_HEIGHT = 32;
 
-/** The readings, read-only, in SI; only the channels the run has. Scrolls to and marks one reading on request. */
+/** At most this many decimals are shown; a column's own count comes from its readings. */
+const MAX_DECIMALS = 9;
+
+export interface ReadingColumn {
+  key: string;
+  label: string;
+  unit: string;
+  values: readonly (number | null)[];
+  /** SI to the shown unit, and the decimals every reading of the column gets. */
+  kind: UnitKind | null;
+  shownUnit: string;
+  decimals: number | null;
+}
+
+/** Decimals in a number as a person would write it (12 significant digits hide the round trip's float noise). */
+function decimalsOf(text: string): number | null {
+  if (/e/i.test(text)) return null;
+  const dot = text.indexOf('.');
+  return dot < 0 ? 0 : text.length - dot - 1;
+}
+
+/**
+ * The readings, read-only, in the unit each channel was entered in, with as many decimals as the column's
+ * most precise reading (so 3.000 V beside 3.012 V stays 3.000 V); SI on demand. Only the channels the run
+ * has. Scrolls to and marks one reading on request.
+ */
 @Component({
   selector: 'qw-readings-table',
-  imports: [ScrollingModule],
+  imports: [MatButtonModule, ScrollingModule],
   template: `
-    <div class="grid" role="table" [attr.aria-label]="'Readings in SI units, ' + readings().count + ' rows'" [attr.aria-rowcount]="readings().count + 1">
+    <div class="units">
+      <button mat-stroked-button type="button" [attr.aria-pressed]="siShown()" (click)="siShown.set(!siShown())">
+        {{ siShown() ? 'Show as entered' : 'Show in SI units' }}
+      </button>
+      <span class="note">{{ siShown() ? 'Values in SI units, as the balance check reads them.' : 'Values in the units they were entered in.' }}</span>
+    </div>
+    <div class="grid" role="table" [attr.aria-label]="(siShown() ? 'Readings in SI units, ' : 'Readings as entered, ') + readings().count + ' rows'" [attr.aria-rowcount]="readings().count + 1">
       <div class="row head" role="row" [style.grid-template-columns]="template()">
         <span role="columnheader">#</span>
         @for (column of columns(); track column.key) {
@@ -33,13 +65,15 @@ const ROW_HEIGHT = 32;
         >
           <span role="cell">{{ index + 1 }}</span>
           @for (column of columns(); track column.key) {
-            <span role="cell">{{ show(column.values[index]) }}</span>
+            <span role="cell">{{ show(column, column.values[index]) }}</span>
           }
         </div>
       </cdk-virtual-scroll-viewport>
     </div>
   `,
   styles: `
+    .units { display: flex; flex-wrap: wrap; align-items: center; gap: 0.5rem 1rem; margin-bottom: 0.5rem; }
+    .note { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-medium); }
     .grid { border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-medium); overflow-x: auto; }
     .viewport { height: 20rem; min-width: fit-content; }
     .row { display: grid; gap: 0.5rem; align-items: center; height: 32px; padding: 0 0.75rem; font-variant-numeric: tabular-nums; white-space: nowrap; }
@@ -57,19 +91,12 @@ export class ReadingsTable {
   /** The 1-based reading marked by the last "Show reading". */
   protected readonly marked = signal<number | null>(null);
 
-  protected readonly columns = computed(() => {
-    const readings = this.readings();
-    const present = READING_CHANNELS.filter((channel) => readings[channel]?.some((value) => value !== null));
-    return [
-      { key: 'time', label: CHANNEL_LABELS.time, unit: READING_SI_UNITS.time, values: readings.time as readonly (number | null)[] },
-      ...present.map((channel) => ({
-        key: channel,
-        label: CHANNEL_LABELS[channel],
-        unit: READING_SI_UNITS[channel],
-        values: readings[channel],
-      })),
-    ];
-  });
+  /** The run's setup: the unit each channel (and time) was entered in. */
+  readonly setup = input<RunSetup | null>(null);
+  /** SI on demand; as entered by default. */
+  protected readonly siShown = signal(false);
+
+  protected readonly columns = computed(() => readingColumns(this.readings(), this.setup(), this.siShown()));
   protected readonly template = computed(() => `3.5rem repeat(${this.columns().length}, minmax(7.5rem, 1fr))`);
   protected readonly indexes = computed(() => Array.from({ length: this.readings().count }, (_, i) => i));
 
@@ -85,13 +112,43 @@ export class ReadingsTable {
     return index;
   }
 
-  protected show(value: number | null | undefined): string {
-    if (value === null || value === undefined) {
-      return '—';
-    }
-    if (value === 0) {
-      return '0';
-    }
-    return Math.abs(value) >= 1e-3 && Math.abs(value) < 1e7 ? String(Number(value.toPrecision(7))) : value.toExponential(5);
+  protected show(column: ReadingColumn, value: number | null | undefined): string {
+    return formatReading(column, value);
   }
+}
+
+/** The run's columns, each in the unit it was entered in (or SI), with the decimals of its most precise reading. */
+export function readingColumns(readings: RunReadings, setup: RunSetup | null, si: boolean): ReadingColumn[] {
+  const present = READING_CHANNELS.filter((channel) => readings[channel]?.some((value) => value !== null));
+  const timeUnit = setup?.time?.unit;
+  const column = (key: 'time' | ReadingChannel, kind: UnitKind, entered: string | undefined, values: readonly (number | null)[]): ReadingColumn => {
+    const known = !si && entered !== undefined && unitsOf(kind).includes(entered);
+    const shownUnit = known ? entered! : READING_SI_UNITS[key];
+    let decimals: number | null = 0;
+    if (known) {
+      for (const value of values) {
+        const d = value === null ? 0 : decimalsOf(displayFromSi(kind, shownUnit, value));
+        decimals = d === null || decimals === null ? null : Math.max(decimals, d);
+      }
+    }
+    return {
+      key, label: CHANNEL_LABELS[key], unit: unitLabel(shownUnit), values, kind: known ? kind : null, shownUnit,
+      decimals: known && decimals !== null ? Math.min(decimals, MAX_DECIMALS) : null,
+    };
+  };
+  return [
+    column('time', 'time', timeUnit === 'iso' ? undefined : timeUnit, readings.time),
+    ...present.map((channel) => column(channel, CHANNEL_KINDS[channel], setup?.channels?.[channel]?.unit, readings[channel])),
+  ];
+}
+
+/** One reading as text: in the column's entered unit with its decimals, or in SI with up to 7 significant digits. */
+export function formatReading(column: ReadingColumn, value: number | null | undefined): string {
+  if (value === null || value === undefined) {
+    return '—';
+  }
+  if (column.kind) {
+    return column.decimals === null ? displayFromSi(column.kind, column.shownUnit, value) : fromSi(column.kind, column.shownUnit, value).toFixed(column.decimals);
+  }
+  return String(Number(value.toPrecision(7)));
 }
