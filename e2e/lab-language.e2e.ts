@@ -138,7 +138,7 @@ describe('a technician, on the charts and the pressure alert', () => {
     }
     // Readings as entered (°C, mA, with their digits), SI on demand.
     const table = page.locator('qw-readings-table');
-    expect(await table.getByRole('columnheader').allTextContents()).toEqual(expect.arrayContaining(['Temperature (°C)', 'Current (mA)']));
+    expect(await table.getByRole('columnheader').allTextContents()).toEqual(expect.arrayContaining(['Temperature (°C)', 'Heater current (mA)']));
     const firstTemperature = doc2Temperature();
     await table.getByRole('cell', { name: firstTemperature, exact: true }).first().waitFor();
     for (const width of [1366, 390]) {

@@ -36,7 +36,7 @@ describe('ReadingsTable', () => {
 
   it('shows each reading in the unit and with the decimals it was entered in, units written as people write them', async () => {
     const { text } = await render();
-    expect(text('[role="columnheader"]')).toEqual(['#', 'Time (min)', 'Volume (mL)', 'Temperature (°C)', 'Voltage (V)']);
+    expect(text('[role="columnheader"]')).toEqual(['#', 'Time (min)', 'Volume (mL)', 'Temperature (°C)', 'Heater voltage (V)']);
     // The rows themselves (the virtual scroll draws none without a layout): each column's values as text.
     const cells = readingColumns(readings, setup, false).map((c) => c.values.map((v) => formatReading(c, v)));
     expect(cells).toEqual([['0', '1'], ['500.0', '502.5'], ['21.50', '21.62'], ['3.000', '3.012']]);
@@ -49,7 +49,7 @@ describe('ReadingsTable', () => {
     toggle.click();
     fixture.detectChanges();
     expect(toggle.getAttribute('aria-pressed')).toBe('true');
-    expect(text('[role="columnheader"]')).toEqual(['#', 'Time (s)', 'Volume (m³)', 'Temperature (K)', 'Voltage (V)']);
+    expect(text('[role="columnheader"]')).toEqual(['#', 'Time (s)', 'Volume (m³)', 'Temperature (K)', 'Heater voltage (V)']);
     const cells = readingColumns(readings, setup, true).map((c) => c.values.map((v) => formatReading(c, v)));
     expect(cells).toEqual([['0', '60'], ['0.0005', '0.0005025'], ['294.65', '294.77'], ['3', '3.012']]);
     expect(root.querySelector('[role="table"]')?.getAttribute('aria-label')).toBe('Readings in SI units, 2 rows');
