@@ -3,11 +3,13 @@
 //   1. stores N readings (default 10⁶; time + pressure, volume, temperature) with one PUT /api/runs/:id/readings,
 //   2. checks a run document of M readings (default 550 000) with one POST /api/balance,
 // while /api/health is asked every 20 ms; prints wall time, the server's peak RSS (VmHWM) and the
-// health answers' p50/p99/max for each. Targets: store < 10 s and < 400 MB; health p99 < 100 ms.
+// health answers' p50/p99/max for each (and for 5 s with the server idle, as the machine's own baseline).
+// Targets: store < 10 s and < 400 MB; health p99 < 100 ms.
 //   npx tsx --tsconfig tsconfig.server.json tools/bench-readings.ts [N] [M]
 import 'reflect-metadata';
 import bcrypt from 'bcryptjs';
 import { readFileSync } from 'node:fs';
+import { loadavg } from 'node:os';
 import { join } from 'node:path';
 import postgres from 'postgres';
 import { ApiClient } from '../testing/api-harness';
@@ -77,12 +79,17 @@ async function main(): Promise<void> {
     const pid = api.child.pid!;
     const client = new ApiClient(api.url);
     if ((await client.signIn(EMAIL, PASSWORD)).status !== 200) throw new Error('bench sign-in failed');
+    console.log(`load average ${loadavg().map((l) => l.toFixed(1)).join(', ')} on this machine`);
     console.log(`server after start: peak RSS ${peakRssMb(pid).toFixed(0)} MB`);
 
     const created = await client.post('/api/runs', { projectId: project.id, title: 'Bench: a million readings', process: 'isothermal', runDate: '2026-03-14', setup: { gas: { model: 'species', species: 'N2' }, amount: { from: 'moles', value: 0.05 } } });
     if (created.status !== 201) throw new Error(`create: ${created.status} ${JSON.stringify(created.body)}`);
     const body = JSON.stringify({ version: created.body.version, ...readingsBody(N) });
     console.log(`PUT body: ${(body.length / 1024 / 1024).toFixed(1)} MB of JSON, ${N} readings × 4 columns`);
+    // The same health requests with nothing else asked of the server: what the machine's load alone gives.
+    const idle = pollHealth(api.url);
+    await new Promise((r) => setTimeout(r, 5000));
+    console.log(`idle for 5 s: ${healthLine(await idle.stop())}`);
     const health = pollHealth(api.url);
     const started = performance.now();
     const put = await client.agent.put(`/api/runs/${created.body.id}/readings`).set('X-XSRF-TOKEN', client.xsrfToken).set('Content-Type', 'application/json').send(body);
