@@ -1,10 +1,11 @@
 // One sentence of why beside a verdict that breaks or is indeterminate, built from a stored result only,
 // so that the run page, e-mails and the PDF report say the same thing. Not engine logic: it reads the
 // engine's budget and hints and words them; it never re-evaluates anything.
+import type { Verdict } from '../../contract/runs';
 
 /** The parts of a stored balance result the sentence reads (a subset of the engine's BalanceResult). */
 export interface WhyInput {
-  verdict: 'closes' | 'breaks' | 'indeterminate';
+  verdict: Verdict;
   En: number | null;
   residual: { r: number; u: number; U: number; k: number };
   indeterminateLimit: number;

@@ -1,5 +1,6 @@
 // The run document: Qwell's versioned JSON interchange format for one run (docs/run-document.md),
 // and its validation into a list of { path, message } problems.
+import type { RunTimeUnit } from '../../contract/api/runs';
 import { CHANNEL_UNIT_KINDS } from '../../contract/channels';
 import { RUN_PROCESSES } from '../../contract/runs';
 import { SPECIES, type Species } from './gases';
@@ -52,7 +53,7 @@ export interface PressureChannel extends Channel {
 
 export interface Readings {
   /** Milliseconds, seconds, minutes, hours, or ISO 8601 timestamps (unit "iso"). */
-  time: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; values: Array<number | string> };
+  time: { unit: RunTimeUnit; values: Array<number | string> };
   pressure?: PressureChannel;
   volume?: Channel;
   /** Piston displacement (m or mm); V = deadVolume + π·bore²/4 · x. */

@@ -1,6 +1,8 @@
 // Normalized error and the balance verdict.
 
-export type Verdict = 'closes' | 'breaks' | 'indeterminate';
+import type { Verdict } from '../../contract/runs';
+
+export type { Verdict };
 
 /**
  * Relative slack at En = 1: a residual exactly at its expanded uncertainty in decimal arithmetic can land a

@@ -1,3 +1,4 @@
+import type { RunTimeUnit } from '../../contract/api/runs';
 import { createHash } from 'node:crypto';
 import { badRequest, type FieldError } from '../core/problem';
 import { affineToSi, type UnitKind } from '../engine/units';
@@ -32,7 +33,7 @@ export function columnOf(values: readonly unknown[]): ValueColumn {
 
 /** Readings as people send them, one column per channel, in the channel's own unit. */
 export interface ColumnsInput {
-  time: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; values: ValueColumn };
+  time: { unit: RunTimeUnit; values: ValueColumn };
   channels: Partial<Record<ChannelName, ChannelSetup & { values: ValueColumn }>>;
 }
 

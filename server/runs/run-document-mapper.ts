@@ -1,3 +1,4 @@
+import type { RunTimeUnit } from '../../contract/api/runs';
 import type { InferSelectModel } from 'drizzle-orm';
 import type { apparatus as apparatusTable, calibrations, instruments, readings, runs } from '../../db/schema';
 import { RUN_FORMAT, RUN_FORMAT_VERSION, type Apparatus, type Instrument, type Readings, type RunDocument } from '../engine/run-document';
@@ -13,7 +14,7 @@ export { MAX_SECONDS, MAX_SI_MAGNITUDE } from './readings-columns';
 
 /** Readings as people send them: one array per channel, in the channel's own unit. */
 export interface ReadingsInput {
-  time: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; values: Array<number | string> };
+  time: { unit: RunTimeUnit; values: Array<number | string> };
   channels: Partial<Record<ChannelName, ChannelSetup & { values: Array<number | null> }>>;
 }
 

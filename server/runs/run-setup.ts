@@ -1,3 +1,4 @@
+import type { RunTimeUnit } from '../../contract/api/runs';
 import type { CalorimetryFields } from '../engine/run-document-calorimetry';
 import { CHANNEL_KINDS, type AmountSpec, type Apparatus, type GasSpec, type Instrument, type Quantity } from '../engine/run-document';
 
@@ -38,7 +39,7 @@ export interface RunSetup {
   apparatusSource?: 'register' | 'run';
   /** Instruments described in the run itself rather than in the register. */
   instruments?: Instrument[];
-  time?: { unit: 'ms' | 's' | 'min' | 'h' | 'iso'; origin?: string };
+  time?: { unit: RunTimeUnit; origin?: string };
   channels?: Partial<Record<ChannelName, ChannelSetup>>;
   notes?: string;
   /** Calorimetry (docs/run-document.md): a standardization run and its known heat input, and the main period. */

@@ -10,6 +10,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { Router } from '@angular/router';
 import { HttpErrorResponse } from '@angular/common/http';
 import { Observable, catchError, forkJoin, map, of } from 'rxjs';
+import { RUN_PROCESSES } from '@contract';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { ImportMappingStep } from '../import-mapping-step/import-mapping-step';
@@ -21,7 +22,8 @@ import { RUN_STATE_LABELS, RunPage, RunState, RunSummary } from '../../runs/runs
 import { ImportsApi } from '../imports-api';
 import { CommitTarget, ImportMapping, ImportPreview, RowError } from '../imports.models';
 
-const PROCESSES = ['isobaric', 'isochoric', 'isothermal', 'adiabatic', 'polytropic', 'calorimetric'] as const;
+/** A logger file is imported into a run that claims a named process (a free-form path is entered by hand). */
+const PROCESSES = RUN_PROCESSES.filter((process) => process !== 'free-form');
 
 /** Import a logger file: upload, map the columns, choose where the readings go, import all-or-nothing. */
 @Component({

@@ -1,4 +1,5 @@
 import { AbstractControl, FormControl, FormGroup, ValidationErrors, Validators } from '@angular/forms';
+import type { TimeUnit } from '@contract';
 
 import {
   CreateRunBody,
@@ -17,7 +18,7 @@ import { standardizationControls, standardizationFromSetup, standardizationSetup
 
 export type GasModel = 'species' | 'equipartition' | 'calorimeter';
 export type AmountFrom = 'none' | 'moles' | 'mass' | 'initialState';
-export type TimeUnit = 'ms' | 's' | 'min' | 'h';
+export type { TimeUnit };
 
 function channelGroup(name: ReadingChannel) {
   return new FormGroup({

@@ -1,6 +1,7 @@
 import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { VERDICTS as CONTRACT_VERDICTS } from '@contract';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -29,7 +30,7 @@ const DEFAULT_QUERY: RunQuery = {
   page: 1, pageSize: 25, state: null, verdict: null, project: null, author: null, mine: false, others: false, safety: null,
   from: null, to: null, sort: 'updatedAt', dir: 'desc',
 };
-const VERDICTS: readonly Verdict[] = ['closes', 'breaks', 'indeterminate'];
+const VERDICTS: readonly Verdict[] = CONTRACT_VERDICTS;
 const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/;
 const PAGE_SIZES = [10, 25, 50, 100];
 const SORTS: readonly RunSort[] = ['code', 'title', 'state', 'updatedAt'];
