@@ -1,12 +1,9 @@
-import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartData, ChartDataset, ChartOptions } from 'chart.js';
-import { Legend, LineController, LineElement, LinearScale, PointElement, Tooltip } from 'chart.js';
-import { BaseChartDirective, provideCharts } from 'ng2-charts';
 
-import { themeColor } from '../../runs/run-detail/run-charts';
+import { chartColors, lineChartOptions, linearAxis } from '../../../shared/charts/chart-theme';
+import { ChartPoint as Point, LineChart } from '../../../shared/charts/line-chart';
 import type { ChartSegment, SeriesRun } from './standardization.models';
-
-type Point = { x: number; y: number };
 
 /**
  * Individuals control chart of the energy equivalent: one point per run, centre line and 3σ limits per segment.
@@ -14,30 +11,20 @@ type Point = { x: number; y: number };
  */
 @Component({
   selector: 'qw-control-chart',
-  imports: [BaseChartDirective],
-  providers: [provideCharts({ registerables: [LineController, LineElement, PointElement, LinearScale, Legend, Tooltip] })],
-  template: `
-    <div class="chart">
-      <canvas baseChart type="line" [data]="data()" [options]="options()" role="img" [attr.aria-label]="summary()"></canvas>
-    </div>
-  `,
-  styles: `.chart { position: relative; height: 18rem; }`,
+  imports: [LineChart],
+  template: `<qw-line-chart [data]="data()" [options]="options()" [summary]="summary()" />`,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ControlChart {
-  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
-
   readonly series = input.required<SeriesRun[]>();
   readonly segments = input.required<ChartSegment[]>();
 
-  private readonly colors = {
-    points: themeColor(this.host, '--mat-sys-primary', 'rgb(14, 92, 99)'),
-    previous: themeColor(this.host, '--mat-sys-outline', 'rgb(120, 120, 120)'),
-    out: themeColor(this.host, '--mat-sys-error', 'rgb(186, 26, 26)'),
-    limits: themeColor(this.host, '--mat-sys-tertiary', 'rgb(181, 101, 58)'),
-    grid: themeColor(this.host, '--mat-sys-outline-variant', 'rgb(200, 200, 200)'),
-    text: themeColor(this.host, '--mat-sys-on-surface', 'rgb(20, 20, 20)'),
-  };
+  private readonly colors = chartColors({
+    points: ['--mat-sys-primary', 'rgb(14, 92, 99)'],
+    previous: ['--mat-sys-outline', 'rgb(120, 120, 120)'],
+    out: ['--mat-sys-error', 'rgb(186, 26, 26)'],
+    limits: ['--mat-sys-tertiary', 'rgb(181, 101, 58)'],
+  });
 
   /** First and last x (1-based run position) of each segment. */
   private readonly spans = computed(() => this.segments().map((seg) => {
@@ -88,28 +75,26 @@ export class ControlChart {
     return { datasets };
   });
 
-  protected readonly options = computed((): ChartOptions<'line'> => {
-    return {
-      responsive: true,
-      maintainAspectRatio: false,
-      animation: false,
-      parsing: false,
-      scales: {
-        x: {
-          type: 'linear', min: 0.5, max: Math.max(1, this.series().length) + 0.5,
-          title: { display: true, text: 'run, in date order', color: this.colors.text },
-          // One tick per run at its position (the axis starts at 0.5, so stepped ticks would fall between runs).
-          afterBuildTicks: (axis) => { axis.ticks = this.series().map((_, i) => ({ value: i + 1 })); },
-          ticks: { color: this.colors.text, callback: (v) => this.series()[Number(v) - 1]?.code ?? '' },
-          grid: { color: this.colors.grid },
+  protected readonly options = computed(
+    (): ChartOptions<'line'> =>
+      lineChartOptions(this.colors, {
+        scales: {
+          x: linearAxis('run, in date order', this.colors, {
+            min: 0.5,
+            max: Math.max(1, this.series().length) + 0.5,
+            // One tick per run at its position (the axis starts at 0.5, so stepped ticks would fall between runs).
+            afterBuildTicks: (axis) => {
+              axis.ticks = this.series().map((_, i) => ({ value: i + 1 }));
+            },
+            ticks: { callback: (v) => this.series()[Number(v) - 1]?.code ?? '' },
+          }),
+          y: linearAxis('energy equivalent ε / (J/K)', this.colors),
         },
-        y: { type: 'linear', title: { display: true, text: 'energy equivalent ε / (J/K)', color: this.colors.text }, grid: { color: this.colors.grid }, ticks: { color: this.colors.text } },
-      },
-      plugins: {
-        // One legend entry per kind of line (the lower limit and repeated segments share their upper line's entry).
-        legend: { labels: { color: this.colors.text, filter: (item, data) => item.text !== 'lower limit' && data.datasets.findIndex((d) => d.label === item.text) === item.datasetIndex } },
-        tooltip: { callbacks: { label: (ctx) => (ctx.datasetIndex === 0 ? `${this.series()[ctx.dataIndex]?.code}: ${ctx.parsed.y?.toFixed(1)} J/K` : `${ctx.dataset.label}: ${ctx.parsed.y?.toFixed(1)} J/K`) } },
-      },
-    };
-  });
+        plugins: {
+          // One legend entry per kind of line (the lower limit and repeated segments share their upper line's entry).
+          legend: { labels: { filter: (item, data) => item.text !== 'lower limit' && data.datasets.findIndex((d) => d.label === item.text) === item.datasetIndex } },
+          tooltip: { callbacks: { label: (ctx) => (ctx.datasetIndex === 0 ? `${this.series()[ctx.dataIndex]?.code}: ${ctx.parsed.y?.toFixed(1)} J/K` : `${ctx.dataset.label}: ${ctx.parsed.y?.toFixed(1)} J/K`) } },
+        },
+      }),
+  );
 }

@@ -1,28 +1,19 @@
-import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartData, ChartOptions } from 'chart.js';
-import { BaseChartDirective } from 'ng2-charts';
 
+import { chartColors, lineChartOptions, linearAxis, withAlpha } from '../../../shared/charts/chart-theme';
+import { ChartPoint as Point, LineChart } from '../../../shared/charts/line-chart';
 import type { McHistogram } from '../run-detail.models';
-import { RUN_CHARTS, themeColor, withAlpha } from './run-charts';
-
-type Point = { x: number; y: number };
 
 /** Histogram of the Monte Carlo draws of r, with the 95 % interval and the linear estimate marked. */
 @Component({
   selector: 'qw-mc-histogram',
-  imports: [BaseChartDirective],
-  providers: [RUN_CHARTS],
-  template: `
-    <div class="chart">
-      <canvas baseChart type="line" [data]="data()" [options]="options()" role="img" [attr.aria-label]="summary()"></canvas>
-    </div>
-  `,
-  styles: `.chart { position: relative; height: 12rem; }`,
+  imports: [LineChart],
+  template: `<qw-line-chart [data]="data()" [options]="options()" [summary]="summary()" />`,
+  styles: `qw-line-chart { height: 12rem; }`,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class McHistogramChart {
-  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
-
   readonly histogram = input.required<McHistogram>();
   /** Ends of the coverage interval, J. */
   readonly low = input.required<number>();
@@ -30,12 +21,10 @@ export class McHistogramChart {
   /** The linear estimate of r, J. */
   readonly r = input.required<number>();
 
-  private readonly colors = {
-    bars: themeColor(this.host, '--mat-sys-primary', 'rgb(14, 92, 99)'),
-    interval: themeColor(this.host, '--mat-sys-tertiary', 'rgb(181, 101, 58)'),
-    grid: themeColor(this.host, '--mat-sys-outline-variant', 'rgb(200, 200, 200)'),
-    text: themeColor(this.host, '--mat-sys-on-surface', 'rgb(20, 20, 20)'),
-  };
+  private readonly colors = chartColors({
+    bars: ['--mat-sys-primary', 'rgb(14, 92, 99)'],
+    interval: ['--mat-sys-tertiary', 'rgb(181, 101, 58)'],
+  });
 
   protected readonly summary = computed(() => {
     const h = this.histogram();
@@ -59,17 +48,14 @@ export class McHistogramChart {
     };
   });
 
-  protected readonly options = computed((): ChartOptions<'line'> => ({
-    responsive: true,
-    maintainAspectRatio: false,
-    animation: false,
-    parsing: false,
-    scales: {
-      x: { type: 'linear', title: { display: true, text: 'r / J', color: this.colors.text }, grid: { color: this.colors.grid }, ticks: { color: this.colors.text } },
-      y: { type: 'linear', beginAtZero: true, title: { display: true, text: 'draws', color: this.colors.text }, grid: { color: this.colors.grid }, ticks: { color: this.colors.text } },
-    },
-    plugins: {
-      legend: { labels: { color: this.colors.text, filter: (item) => item.text !== '95 % interval (upper)' } },
-    },
-  }));
+  protected readonly options = computed(
+    (): ChartOptions<'line'> =>
+      lineChartOptions(this.colors, {
+        scales: {
+          x: linearAxis('r / J', this.colors),
+          y: linearAxis('draws', this.colors, { beginAtZero: true }),
+        },
+        plugins: { legend: { labels: { filter: (item) => item.text !== '95 % interval (upper)' } } },
+      }),
+  );
 }

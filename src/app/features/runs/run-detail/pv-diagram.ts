@@ -1,18 +1,17 @@
-import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, signal } from '@angular/core';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import type { ChartData, ChartOptions, ScriptableContext } from 'chart.js';
-import { BaseChartDirective } from 'ng2-charts';
 
+import { chartColors, lineChartOptions, linearAxis, withAlpha } from '../../../shared/charts/chart-theme';
+import { LineChart } from '../../../shared/charts/line-chart';
 import { GammaChoice, PvPoint, arrowStep, claimedCurve, idealCurve, measuredPath } from './pv-curves';
-import { RUN_CHARTS, themeColor, withAlpha } from './run-charts';
 
 type Layer = 'path' | 'arrows' | 'area' | 'claimed' | 'fitted';
 
 /** The measured P–V path with its direction, the work area under it, the claimed process and the fitted polytrope through the first state. */
 @Component({
   selector: 'qw-pv-diagram',
-  imports: [BaseChartDirective, MatCheckboxModule],
-  providers: [RUN_CHARTS],
+  imports: [LineChart, MatCheckboxModule],
   template: `
     <fieldset class="layers">
       <legend class="cdk-visually-hidden">Show on the diagram</legend>
@@ -22,9 +21,7 @@ type Layer = 'path' | 'arrows' | 'area' | 'claimed' | 'fitted';
         </mat-checkbox>
       }
     </fieldset>
-    <div class="chart">
-      <canvas baseChart type="line" [data]="data()" [options]="options()" role="img" [attr.aria-label]="summary()"></canvas>
-    </div>
+    <qw-line-chart [data]="data()" [options]="options()" [summary]="summary()" />
     <p class="note">
       Pressure in kPa (absolute) against volume in L. The shaded area under the path is the work the gas does,
       W = ∫P dV. {{ curveNote() }}
@@ -32,14 +29,12 @@ type Layer = 'path' | 'arrows' | 'area' | 'claimed' | 'fitted';
   `,
   styles: `
     .layers { display: flex; flex-wrap: wrap; gap: 0 1rem; border: 0; margin: 0 0 0.5rem; padding: 0; }
-    .chart { position: relative; height: 22rem; }
+    qw-line-chart { height: 22rem; }
     .note { font: var(--mat-sys-body-medium); color: var(--mat-sys-on-surface-variant); }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class PvDiagram {
-  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
-
   /** Absolute pressure, Pa, per reading. */
   readonly pressure = input.required<readonly number[]>();
   /** Volume, m³, per reading. */
@@ -68,13 +63,11 @@ export class PvDiagram {
     fitted: true,
   });
 
-  private readonly colors = {
-    path: themeColor(this.host, '--mat-sys-primary', 'rgb(40, 90, 160)'),
-    claimed: themeColor(this.host, '--mat-sys-tertiary', 'rgb(120, 80, 150)'),
-    fitted: themeColor(this.host, '--mat-sys-on-surface-variant', 'rgb(80, 80, 80)'),
-    grid: themeColor(this.host, '--mat-sys-outline-variant', 'rgb(200, 200, 200)'),
-    text: themeColor(this.host, '--mat-sys-on-surface', 'rgb(20, 20, 20)'),
-  };
+  private readonly colors = chartColors({
+    path: ['--mat-sys-primary', 'rgb(40, 90, 160)'],
+    claimed: ['--mat-sys-tertiary', 'rgb(120, 80, 150)'],
+    fitted: ['--mat-sys-on-surface-variant', 'rgb(80, 80, 80)'],
+  });
 
   private readonly path = computed(() => measuredPath(this.pressure(), this.volume()));
   private readonly claimed = computed(() =>
@@ -168,37 +161,23 @@ export class PvDiagram {
   });
 
   protected readonly options = computed(
-    (): ChartOptions<'line'> => ({
-      responsive: true,
-      maintainAspectRatio: false,
-      animation: false,
-      parsing: false,
-      interaction: { mode: 'nearest', intersect: false },
-      scales: {
-        x: {
-          type: 'linear',
-          title: { display: true, text: 'V / L', color: this.colors.text },
-          grid: { color: this.colors.grid },
-          ticks: { color: this.colors.text },
+    (): ChartOptions<'line'> =>
+      lineChartOptions(this.colors, {
+        interaction: { mode: 'nearest', intersect: false },
+        scales: {
+          x: linearAxis('V / L', this.colors),
+          y: linearAxis('P / kPa', this.colors, { beginAtZero: true }),
         },
-        y: {
-          type: 'linear',
-          beginAtZero: true,
-          title: { display: true, text: 'P / kPa', color: this.colors.text },
-          grid: { color: this.colors.grid },
-          ticks: { color: this.colors.text },
-        },
-      },
-      plugins: {
-        // Our own checkboxes show and hide the layers; the legend only names the line styles.
-        legend: { labels: { color: this.colors.text, usePointStyle: false }, onClick: () => undefined },
-        tooltip: {
-          callbacks: {
-            label: (item) => `${item.dataset.label}: ${item.parsed.y?.toPrecision(5)} kPa at ${item.parsed.x?.toPrecision(5)} L`,
+        plugins: {
+          // Our own checkboxes show and hide the layers; the legend only names the line styles.
+          legend: { labels: { usePointStyle: false }, onClick: () => undefined },
+          tooltip: {
+            callbacks: {
+              label: (item) => `${item.dataset.label}: ${item.parsed.y?.toPrecision(5)} kPa at ${item.parsed.x?.toPrecision(5)} L`,
+            },
           },
         },
-      },
-    }),
+      }),
   );
 
   protected toggle(layer: Layer, on: boolean): void {

@@ -34,10 +34,7 @@ const run: RunRecord = {
   returnReason: null,
   authorId: 1,
   authorName: 'Lena Okonkwo',
-  projectId: 1,
   projectName: 'Gas expansion, teaching lab 2',
-  gasId: null,
-  apparatusId: 1,
   setup: {
     gas: { model: 'species', species: 'air' },
     channels: { pressure: { unit: 'kPa' }, temperature: { unit: 'K' } },

@@ -1,13 +1,11 @@
-import { ChangeDetectionStrategy, Component, ElementRef, computed, inject, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { ChartData, ChartOptions } from 'chart.js';
-import { BaseChartDirective } from 'ng2-charts';
 
+import { chartColors, lineChartOptions, linearAxis, withAlpha } from '../../../shared/charts/chart-theme';
+import { ChartPoint as Point, LineChart } from '../../../shared/charts/line-chart';
 import type { TemperatureRise } from '../calorimetry.models';
 import { riseOverlay, riseOverlayPlugin } from './rise-overlay';
-import { RUN_CHARTS, themeColor, withAlpha } from './run-charts';
 import { powerAxisRange } from './time-axes';
-
-type Point = { x: number; y: number };
 
 /**
  * Temperature and heater power over time, on two axes. For a calorimetric run the same chart shades the fore-,
@@ -15,20 +13,13 @@ type Point = { x: number; y: number };
  */
 @Component({
   selector: 'qw-time-charts',
-  imports: [BaseChartDirective],
-  providers: [RUN_CHARTS],
-  template: `
-    <div class="chart">
-      <canvas baseChart type="line" [data]="data()" [options]="options()" [plugins]="plugins" role="img" [attr.aria-label]="summary()"></canvas>
-    </div>
-  `,
+  imports: [LineChart],
+  template: `<qw-line-chart [data]="data()" [options]="options()" [plugins]="plugins" [summary]="summary()" />`,
   // A narrow screen stacks the legend: more height keeps the plot readable.
-  styles: `.chart { position: relative; height: 18rem; } @media (max-width: 40rem) { .chart { height: 26rem; } }`,
+  styles: `@media (max-width: 40rem) { qw-line-chart { height: 26rem; } }`,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class TimeCharts {
-  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
-
   /** Time, s. */
   readonly time = input.required<readonly number[]>();
   /** Temperature, K; null when the run has none. */
@@ -38,15 +29,13 @@ export class TimeCharts {
   /** The corrected rise of a calorimetric run; null otherwise. */
   readonly rise = input<TemperatureRise | null>(null);
 
-  private readonly colors = {
-    temperature: themeColor(this.host, '--mat-sys-primary', 'rgb(40, 90, 160)'),
-    power: themeColor(this.host, '--mat-sys-tertiary', 'rgb(120, 80, 150)'),
-    drift: themeColor(this.host, '--mat-sys-error', 'rgb(186, 26, 26)'),
-    marks: themeColor(this.host, '--mat-sys-outline', 'rgb(120, 120, 120)'),
-    surface: themeColor(this.host, '--mat-sys-surface', 'rgb(255, 255, 255)'),
-    grid: themeColor(this.host, '--mat-sys-outline-variant', 'rgb(200, 200, 200)'),
-    text: themeColor(this.host, '--mat-sys-on-surface', 'rgb(20, 20, 20)'),
-  };
+  private readonly colors = chartColors({
+    temperature: ['--mat-sys-primary', 'rgb(40, 90, 160)'],
+    power: ['--mat-sys-tertiary', 'rgb(120, 80, 150)'],
+    drift: ['--mat-sys-error', 'rgb(186, 26, 26)'],
+    marks: ['--mat-sys-outline', 'rgb(120, 120, 120)'],
+    surface: ['--mat-sys-surface', 'rgb(255, 255, 255)'],
+  });
 
   private readonly overlay = computed(() => {
     const rise = this.rise();
@@ -100,31 +89,17 @@ export class TimeCharts {
 
   protected readonly options = computed((): ChartOptions<'line'> => {
     const power = this.power();
-    const axis = (text: string, position: 'left' | 'right', display: boolean) => ({
-      type: 'linear' as const,
-      position,
-      display,
-      title: { display: true, text, color: this.colors.text },
-      grid: { color: this.colors.grid, drawOnChartArea: position === 'left' },
-      ticks: { color: this.colors.text },
-    });
-    return {
-      responsive: true,
-      maintainAspectRatio: false,
-      animation: false,
-      parsing: false,
+    const side = (position: 'left' | 'right', shown: boolean) => ({ position, display: shown, grid: { drawOnChartArea: position === 'left' } });
+    return lineChartOptions(this.colors, {
       interaction: { mode: 'nearest', intersect: false },
       scales: {
-        x: {
-          type: 'linear', title: { display: true, text: 'Time (s)', color: this.colors.text }, grid: { color: this.colors.grid }, ticks: { color: this.colors.text },
-          // With periods shaded, the axis runs exactly from the first to the last reading.
-          ...(this.overlay() ? { min: this.time()[0], max: this.time()[this.time().length - 1] } : {}),
-        },
-        y: axis('Temperature (K)', 'left', this.temperature() !== null),
+        // With periods shaded, the axis runs exactly from the first to the last reading.
+        x: linearAxis('Time (s)', this.colors, this.overlay() ? { min: this.time()[0], max: this.time()[this.time().length - 1] } : {}),
+        y: linearAxis('Temperature (K)', this.colors, side('left', this.temperature() !== null)),
         // From 0 W to just above the heater's highest power: its level reads, not the noise on it.
-        y1: { ...axis('Heater power (W)', 'right', power !== null), ...powerAxisRange(power ?? []) },
+        y1: linearAxis('Heater power (W)', this.colors, { ...side('right', power !== null), ...powerAxisRange(power ?? []) }),
       },
-      plugins: { legend: { labels: { color: this.colors.text, boxWidth: 24 } } },
-    };
+      plugins: { legend: { labels: { boxWidth: 24 } } },
+    });
   });
 }
