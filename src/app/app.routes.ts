@@ -29,10 +29,9 @@ export const routes: Routes = [
         loadChildren: () => import('./features/runs/runs.routes').then((m) => m.runsRoutes),
       },
       {
-        // Investigators may import too; the navigation shows the entry to the roles that import daily.
         path: 'imports',
         canActivate: [roleGuard],
-        data: { roles: [...NAVIGATION.imports.roles, 'investigator'] },
+        data: { roles: NAVIGATION.imports.roles },
         loadChildren: () => import('./features/imports/imports.routes').then((m) => m.importsRoutes),
       },
       {
