@@ -170,6 +170,22 @@ describe('a student assistant', () => {
     await checklist.getByText('Choose the gas, or an apparatus with a measured heat capacity for a calorimeter run.').waitFor();
     expect(await checklist.textContent()).not.toMatch(/gas\.model|"calorimeter"/);
     await checkScreen(page, 'import-checklist');
+
+    // The same file with the gas, amount and ambient conditions chosen on import: the checklist no longer asks for the gas.
+    const gases = (await api('GET', '/api/gases')).items as { id: number; code: string }[];
+    const n2 = gases.find((g) => g.code === 'N2')!;
+    const again = await api('POST', '/api/imports', undefined, { file: { name: 'bath-logger-2.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) } });
+    const carried = await api('POST', `/api/imports/${again.importId}/commit`, {
+      mapping: { time: { index: 0, unit: 's' }, columns: [{ index: 1, channel: 'pressure', unit: 'kPa', reference: 'absolute' }, { index: 2, channel: 'temperature', unit: 'degC' }] },
+      target: { newRun: {
+        projectId: await projectId('GX'), title: `Logger import with its setup, e2e ${Date.now()}`, process: 'isobaric', runDate: '2026-03-14', gasId: n2.id,
+        setup: { gas: { model: 'species', species: 'N2' }, amount: { from: 'moles', value: 0.04 }, ambient: { pressure: { value: 1012.5, unit: 'hPa' }, temperature: { value: 21, unit: 'degC' } } },
+      } },
+    });
+    await page.goto(`/runs/${carried.runId}/edit`);
+    await checklist.waitFor({ timeout: 20_000 });
+    expect(await checklist.textContent()).not.toContain('Choose the gas');
+    await checkScreen(page, 'import-checklist-with-setup');
   });
 });
 

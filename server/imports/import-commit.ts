@@ -73,7 +73,7 @@ export async function commitImport(db: Database, person: SessionPerson, id: numb
       const nr = body.target.newRun;
       await checkNewRunReferences(tx, person, nr);
       const code = await nextCode(tx, nr.runDate);
-      const setup: RunSetup = { time, channels };
+      const setup: RunSetup = { ...(nr.setup ?? {}), time, channels };
       const [run] = await tx.insert(runs).values({
         code, projectId: nr.projectId, authorId: person.id, title: nr.title.trim(), process: nr.process, runDate: nr.runDate,
         gasId: nr.gasId ?? null, apparatusId: nr.apparatusId ?? null, setup: setup as Record<string, unknown>,

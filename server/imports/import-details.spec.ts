@@ -1,5 +1,5 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
-import { auditEvents, projects, uploads } from '../../db/schema';
+import { apparatus, auditEvents, gases, projects, uploads } from '../../db/schema';
 import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { csv, uploadFile } from '../../testing/import-spec-support';
 
@@ -39,6 +39,48 @@ describe('file names and time units as loggers write them', () => {
     const run = (await tech.get(`/api/runs/${commit.body.runId}`)).body;
     expect(run.readings.time).toEqual([0, 0.25, 0.5]);
     expect(run.setup.time).toEqual({ unit: 's' });
+  });
+});
+
+describe('a new draft from an import carries what the file does not', () => {
+  const file = () => csv(['Time (s),P (kPa),T/°C', '0,101.3,25.1', '10,102.0,25.4', '20,102.8,25.9']);
+  const mapping = (m: { columns: { channel: string }[] }) => ({ ...m, columns: m.columns.map((c) => (c.channel === 'pressure' ? { ...c, reference: 'gauge' } : c)) });
+
+  it('takes the gas, apparatus, run date, amount of gas and ambient conditions, and opens a draft whose checklist no longer asks for them', async () => {
+    const [n2] = await h.handle.db.select({ id: gases.id }).from(gases).where(eq(gases.code, 'N2'));
+    const [pc3] = await h.handle.db.select({ id: apparatus.id }).from(apparatus).where(eq(apparatus.tag, 'PC-3'));
+    const up = await uploadFile(tech, 'bench-logger.csv', file());
+    const setup = {
+      gas: { model: 'species', species: 'N2' },
+      amount: { from: 'moles', value: 0.04, u: 0.0004 },
+      ambient: { pressure: { value: 1012.5, unit: 'hPa', u: 0.3 }, temperature: { value: 21.4, unit: 'degC', u: 0.2 } },
+    };
+    const commit = await tech.post(`/api/imports/${up.body.importId}/commit`, {
+      mapping: mapping(up.body.mapping),
+      target: { newRun: { projectId, title: 'Imported with its setup', process: 'isochoric', runDate: '2026-02-27', gasId: n2.id, apparatusId: pc3.id, setup } },
+    });
+    expect(commit.status).toBe(201);
+    const run = (await tech.get(`/api/runs/${commit.body.runId}`)).body;
+    expect(run).toMatchObject({ runDate: '2026-02-27', gasId: n2.id, apparatusId: pc3.id });
+    expect(run.setup).toMatchObject({ ...setup, time: { unit: 's' } });
+    expect(run.setup.channels.pressure).toMatchObject({ unit: 'kPa', reference: 'gauge' });
+    // The gauge readings have their barometer, the gas its amount: the checklist does not ask for them.
+    const checklist = (await tech.get(`/api/runs/${commit.body.runId}/checklist`)).body;
+    const fields = JSON.stringify(checklist);
+    expect(fields).not.toMatch(/"field":"(gas|amount|ambient[^"]*)"/);
+  });
+
+  it('refuses setup keys the file itself gives (time, channels) and a bad ambient unit, naming the field, and stores nothing', async () => {
+    const up = await uploadFile(tech, 'bench-logger-2.csv', file());
+    const target = (setup: unknown) => ({ newRun: { projectId, title: 'Refused setup', process: 'isochoric', runDate: '2026-02-27', setup } });
+    const channels = await tech.post(`/api/imports/${up.body.importId}/commit`, { mapping: mapping(up.body.mapping), target: target({ channels: {} }) });
+    expect(channels.status).toBe(400);
+    expect(channels.body.errors).toEqual([{ field: 'target.newRun.setup.channels', message: 'not taken on import' }]);
+    const unit = await tech.post(`/api/imports/${up.body.importId}/commit`, { mapping: mapping(up.body.mapping), target: target({ ambient: { pressure: { value: 1, unit: 'furlong' } } }) });
+    expect(unit.status).toBe(400);
+    expect(unit.body.errors[0].field).toBe('target.newRun.setup.ambient.pressure.unit');
+    const [stored] = await h.handle.db.select({ runId: uploads.runId }).from(uploads).orderBy(desc(uploads.id)).limit(1);
+    expect(stored.runId).toBeNull();
   });
 });
 

@@ -2,6 +2,7 @@ import { ArrayMaxSize, ArrayMinSize, IsArray, IsObject, IsString, Length } from 
 import { badRequest, type FieldError } from '../core/problem';
 import { validateBody } from '../core/validate-body';
 import { CreateRunDto } from '../runs/runs-dto';
+import { setupProblems } from '../runs/setup-validation';
 import type { CsvOptions, Delimiter } from './csv-reader';
 import type { ImportMapping } from './row-validation';
 
@@ -54,6 +55,22 @@ export function parseMapping(value: unknown, prefix = 'mapping'): ImportMapping 
   return value as unknown as ImportMapping;
 }
 
+/** What a new draft may carry besides its readings: the gas model, the amount of gas and the ambient conditions. */
+export const IMPORT_SETUP_KEYS = ['gas', 'amount', 'ambient'] as const;
+
+/** The setup of an import's new draft: the readings' time and channels come from the file, the rest from these keys. */
+function checkImportSetup(setup: unknown): void {
+  if (setup === undefined) return;
+  if (!isObject(setup)) throw badRequest('target.newRun.setup must be an object { gas?, amount?, ambient? }.', [{ field: 'target.newRun.setup', message: 'must be an object' }]);
+  const extra = Object.keys(setup).filter((k) => !(IMPORT_SETUP_KEYS as readonly string[]).includes(k));
+  if (extra.length) {
+    throw badRequest(`target.newRun.setup takes ${IMPORT_SETUP_KEYS.join(', ')}; the time and channels come from the file.`,
+      extra.map((k) => ({ field: `target.newRun.setup.${k}`, message: 'not taken on import' })));
+  }
+  const errors = setupProblems(setup).map((e) => ({ ...e, field: `target.newRun.${e.field}` }));
+  if (errors.length) throw badRequest(`The new draft's setup has ${errors.length} problem(s): ${errors.slice(0, 3).map((e) => e.message).join('; ')}.`, errors);
+}
+
 export async function parseCommitBody(body: unknown): Promise<CommitBody> {
   if (!isObject(body)) throw badRequest('The request body must be a JSON object { mapping, target }.');
   const extra = Object.keys(body).filter((k) => k !== 'mapping' && k !== 'target');
@@ -61,13 +78,13 @@ export async function parseCommitBody(body: unknown): Promise<CommitBody> {
   const mapping = parseMapping(body['mapping']);
   const target = body['target'];
   if (isObject(target) && isObject(target['newRun']) && Object.keys(target).length === 1) {
-    if ('setup' in target['newRun']) throw badRequest('target.newRun takes projectId, title, process, runDate, gasId and apparatusId.', [{ field: 'target.newRun.setup', message: 'unknown field' }]);
+    checkImportSetup(target['newRun']['setup']);
     return { mapping, target: { newRun: await validateBody(CreateRunDto, target['newRun']) } };
   }
   if (isObject(target) && Number.isInteger(target['runId']) && Number.isInteger(target['version']) && Object.keys(target).length === 2) {
     return { mapping, target: { runId: target['runId'] as number, version: target['version'] as number } };
   }
-  throw badRequest('target must be { newRun: { projectId, title, process, runDate, gasId?, apparatusId? } } or { runId, version } of one of your drafts.', [
+  throw badRequest('target must be { newRun: { projectId, title, process, runDate, gasId?, apparatusId?, setup?: { gas?, amount?, ambient? } } } or { runId, version } of one of your drafts.', [
     { field: 'target', message: 'either newRun or runId with version' },
   ]);
 }

@@ -84,8 +84,15 @@ export interface UploadOptions {
   sheet: string;
 }
 
+/** What a new draft may carry besides the file's readings (the server takes gas, amount and ambient in setup). */
+export interface NewRunSetup {
+  gas?: { model: 'species'; species: string };
+  amount?: { from: 'moles'; value: number };
+  ambient?: { pressure?: { value: number; unit: string }; temperature?: { value: number; unit: string } };
+}
+
 export interface NewRunTarget {
-  newRun: { projectId: number; title: string; process: string; runDate: string };
+  newRun: { projectId: number; title: string; process: string; runDate: string; gasId?: number; apparatusId?: number; setup?: NewRunSetup };
 }
 export interface ExistingRunTarget {
   runId: number;

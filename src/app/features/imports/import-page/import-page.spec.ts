@@ -30,6 +30,8 @@ describe('ImportPage', () => {
     await fixture.whenStable();
     httpTesting.expectOne('/api/projects').flush({ items: [{ id: 3, code: 'GX', name: 'Gas expansion, teaching lab 2' }] });
     httpTesting.match((r) => r.url === '/api/runs').forEach((r) => r.flush({ items: [] }));
+    httpTesting.expectOne('/api/gases').flush({ items: [{ id: 4, code: 'N2', name: 'Nitrogen', molarMass: 0.028, model: 'shomate' }] });
+    httpTesting.expectOne('/api/apparatus').flush({ items: [{ id: 2, tag: 'PC-3', name: 'Piston cell PC-3', kind: 'piston-cell' }] });
     const preview: ImportPreview = { ...PREVIEW, errors: [], errorCount: 0 };
     (fixture.componentInstance as unknown as { previewArrived(p: ImportPreview): void }).previewArrived(preview);
     await fixture.whenStable();
@@ -51,7 +53,7 @@ describe('ImportPage', () => {
     const process = await (await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Process' }))).getControl(MatSelectHarness);
     await process!.open();
     await process!.clickOptions({ text: 'isothermal' });
-    return { fixture, el, importButton };
+    return { fixture, el, importButton, loader };
   }
 
   it('commits the mapping as prefilled into a new draft, announces it and opens the run for editing', async () => {
@@ -74,11 +76,50 @@ describe('ImportPage', () => {
     expect(navigate).toHaveBeenCalledWith(['/runs', 41, 'edit']);
   });
 
+  it('carries the gas, the amount, the apparatus and the ambient conditions into the new draft, and leaves out what is empty', async () => {
+    jest.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+    const { fixture, importButton, loader } = await withPreview();
+    const field = (label: string) => loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: label }));
+    const gas = await (await field('Gas')).getControl(MatSelectHarness);
+    await gas!.open();
+    await gas!.clickOptions({ text: /Nitrogen/ });
+    const apparatus = await (await field('Apparatus')).getControl(MatSelectHarness);
+    await apparatus!.open();
+    await apparatus!.clickOptions({ text: /PC-3/ });
+    await (await (await field('Amount of gas')).getControl(MatInputHarness))!.setValue('0,042');
+    await (await (await field('Ambient pressure')).getControl(MatInputHarness))!.setValue('1012.5');
+    await (await (await field('Ambient temperature')).getControl(MatInputHarness))!.setValue('21.4');
+    importButton().click();
+    const req = httpTesting.expectOne('/api/imports/12/commit');
+    expect(req.request.body.target).toEqual({
+      newRun: {
+        projectId: 3, title: 'Isothermal expansion from PC-3', process: 'isothermal', runDate: '2026-03-14', gasId: 4, apparatusId: 2,
+        setup: {
+          gas: { model: 'species', species: 'N2' },
+          amount: { from: 'moles', value: 0.042 },
+          ambient: { pressure: { value: 1012.5, unit: 'hPa' }, temperature: { value: 21.4, unit: 'degC' } },
+        },
+      },
+    });
+    req.flush({ importId: 12, runId: 41, version: 1, readings: 2 });
+    await fixture.whenStable();
+  });
+
+  it('does not import with an amount of gas that is not a number of moles', async () => {
+    const { el, importButton, loader } = await withPreview();
+    const amount = await (await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Amount of gas' }))).getControl(MatInputHarness);
+    await amount!.setValue('-1');
+    expect(importButton().disabled).toBe(true);
+    expect(el.textContent).toContain('The amount of gas is a number of moles above 0');
+  });
+
   it('replaces the readings of one of my drafts or returned runs, quoting the version the run has now', async () => {
     const navigate = jest.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
     const fixture = TestBed.createComponent(ImportPage);
     await fixture.whenStable();
     httpTesting.expectOne('/api/projects').flush({ items: [] });
+    httpTesting.expectOne('/api/gases').flush({ items: [] });
+    httpTesting.expectOne('/api/apparatus').flush({ items: [] });
     const lists = httpTesting.match((r) => r.url === '/api/runs');
     // Only one's own runs, and only those whose readings may still change.
     expect(lists.map((r) => [r.request.params.get('state'), r.request.params.get('mine')])).toEqual([

@@ -15,15 +15,27 @@ import { RUN_PROCESSES } from '@contract';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { ImportMappingStep } from '../import-mapping-step/import-mapping-step';
 import { ImportUpload } from '../import-upload/import-upload';
+import { ApparatusApi } from '../../apparatus/apparatus-api';
+import { Apparatus } from '../../apparatus/apparatus.models';
+import { GasesApi } from '../../gases/gases-api';
+import { Gas } from '../../gases/gases.models';
 import { ProjectsApi } from '../../projects/projects-api';
 import { Project } from '../../projects/projects.models';
 import { RunsApi } from '../../runs/runs-api';
 import { RUN_STATE_LABELS, RunPage, RunState, RunSummary } from '../../runs/runs.models';
 import { ImportsApi } from '../imports-api';
-import { CommitTarget, ImportMapping, ImportPreview, RowError } from '../imports.models';
+import { CommitTarget, ImportMapping, ImportPreview, NewRunSetup, NewRunTarget, RowError } from '../imports.models';
 
 /** A logger file is imported into a run that claims a named process (a free-form path is entered by hand). */
 const PROCESSES = RUN_PROCESSES.filter((process) => process !== 'free-form');
+/** Barometers read hPa or mbar, gauges kPa; mmHg on older mercury columns. */
+const AMBIENT_PRESSURE_UNITS = ['hPa', 'kPa', 'mbar', 'mmHg'] as const;
+
+/** A typed number, or null when the field is empty or not a number. */
+function numberOf(text: string): number | null {
+  const value = Number(text.replace(',', '.'));
+  return text.trim() === '' || !Number.isFinite(value) ? null : value;
+}
 
 /** Import a logger file: upload, map the columns, choose where the readings go, import all-or-nothing. */
 @Component({
@@ -52,6 +64,18 @@ export class ImportPage {
   protected readonly process = signal<string>('');
   protected readonly runDate = signal(new Date().toISOString().slice(0, 10));
   protected readonly runId = signal<number | null>(null);
+  // What the file does not carry: chosen here so the new draft opens with less left to do.
+  protected readonly gasId = signal<number | null>(null);
+  protected readonly apparatusId = signal<number | null>(null);
+  protected readonly amount = signal('');
+  protected readonly ambientPressure = signal('');
+  protected readonly ambientPressureUnit = signal<string>('hPa');
+  protected readonly ambientTemperature = signal('');
+  protected readonly ambientPressureUnits = AMBIENT_PRESSURE_UNITS;
+  protected readonly gases = toSignal(inject(GasesApi).list().pipe(map((body) => body.items), catchError(() => of([] as Gas[]))), { initialValue: [] });
+  protected readonly apparatusList = toSignal(inject(ApparatusApi).list().pipe(map((body) => body.items), catchError(() => of([] as Apparatus[]))), {
+    initialValue: [],
+  });
   protected readonly importing = signal(false);
   protected readonly problem = signal<ProblemDetails | null>(null);
   protected readonly rowErrors = signal<RowError[]>([]);
@@ -80,6 +104,9 @@ export class ImportPage {
     if (this.title().trim().length < 3) return 'Give the new draft a title of at least 3 characters.';
     if (!this.process()) return 'Choose the process the run claims (isobaric, isothermal, …).';
     if (!/^\d{4}-\d{2}-\d{2}$/.test(this.runDate())) return 'Give the run date.';
+    if (this.amount().trim() !== '' && !(numberOf(this.amount())! > 0)) return 'The amount of gas is a number of moles above 0, or left empty.';
+    if (this.ambientPressure().trim() !== '' && !(numberOf(this.ambientPressure())! > 0)) return 'The ambient pressure is a number above 0, or left empty.';
+    if (this.ambientTemperature().trim() !== '' && numberOf(this.ambientTemperature()) === null) return 'The ambient temperature is a number (°C), or left empty.';
     return null;
   });
 
@@ -107,10 +134,39 @@ export class ImportPage {
         error: (error: unknown) => this.fail(error),
       });
     } else {
-      this.commit(preview, mapping, {
-        newRun: { projectId: this.projectId()!, title: this.title().trim(), process: this.process(), runDate: this.runDate() },
-      });
+      this.commit(preview, mapping, this.newRunTarget());
     }
+  }
+
+  /** The new draft with what was chosen beside the file; fields left empty are left out. */
+  newRunTarget(): NewRunTarget {
+    const gas = this.gases().find((g) => g.id === this.gasId());
+    const amount = numberOf(this.amount());
+    const pressure = numberOf(this.ambientPressure());
+    const temperature = numberOf(this.ambientTemperature());
+    const setup: NewRunSetup = {
+      ...(gas ? { gas: { model: 'species' as const, species: gas.code } } : {}),
+      ...(amount !== null ? { amount: { from: 'moles' as const, value: amount } } : {}),
+      ...(pressure !== null || temperature !== null
+        ? {
+            ambient: {
+              ...(pressure !== null ? { pressure: { value: pressure, unit: this.ambientPressureUnit() } } : {}),
+              ...(temperature !== null ? { temperature: { value: temperature, unit: 'degC' } } : {}),
+            },
+          }
+        : {}),
+    };
+    return {
+      newRun: {
+        projectId: this.projectId()!,
+        title: this.title().trim(),
+        process: this.process(),
+        runDate: this.runDate(),
+        ...(gas ? { gasId: gas.id } : {}),
+        ...(this.apparatusId() !== null ? { apparatusId: this.apparatusId()! } : {}),
+        ...(Object.keys(setup).length ? { setup } : {}),
+      },
+    };
   }
 
   private myRuns(state: RunState): Observable<RunPage> {
