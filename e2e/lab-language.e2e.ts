@@ -76,6 +76,17 @@ describe('a technician', () => {
     await page.goto(`/runs/${run.id}/edit`);
     await page.getByRole('heading', { level: 2, name: 'Ready to submit' }).waitFor({ timeout: 20_000 });
     await checkScreen(page, 'run-entry-ready');
+    // Phone width: each unit picker sits beside its value with a short visible label that stays inside its outline.
+    await page.setViewportSize({ width: 390, height: 844 });
+    const picker = page.getByRole('combobox', { name: 'Ambient pressure unit' });
+    await picker.scrollIntoViewIfNeeded();
+    const field = picker.locator('xpath=ancestor::mat-form-field');
+    const label = field.locator('mat-label');
+    expect(await label.textContent()).toBe('Unit');
+    const [fieldBox, labelBox] = [await field.boundingBox(), await label.boundingBox()];
+    expect(labelBox!.x + labelBox!.width).toBeLessThanOrEqual(fieldBox!.x + fieldBox!.width);
+    await chartShot(page, 'section[aria-labelledby="bench-heading"]', 'run-entry-units-390');
+    await page.setViewportSize({ width: 1366, height: 900 });
     await page.getByRole('button', { name: 'Submit for the balance check' }).click();
     await page.waitForURL(new RegExp(`/runs/${run.id}$`), { timeout: 20_000 });
     // No reload from here: the page asks again by itself until the check has stored its result.
@@ -84,6 +95,13 @@ describe('a technician', () => {
     const why = card.locator('.why');
     expect(await why.textContent()).toMatch(/Why: No heat leak was accounted for: a heat-loss coefficient h ≈ [\d.]+ W\/K would close the balance\./);
     await checkScreen(page, 'run-page-breaks');
+    // Phone width: the budget's share sits beside its source, and a line says the rest is a swipe away.
+    await page.setViewportSize({ width: 390, height: 844 });
+    const budget = page.locator('qw-budget-table');
+    await budget.getByText('swipe the table sideways').waitFor();
+    expect((await budget.getByRole('columnheader').allTextContents()).map((t) => t.trim()).slice(0, 2)).toEqual(['Source', 'Share of u²(r)']);
+    await chartShot(page, 'qw-budget-table', 'run-page-budget-390');
+    await page.setViewportSize({ width: 1366, height: 900 });
     await page.goto('/runs');
     await checkScreen(page, 'runs-list-technician');
   });

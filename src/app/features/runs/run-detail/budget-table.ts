@@ -1,15 +1,26 @@
+import { BreakpointObserver } from '@angular/cdk/layout';
 import { DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { MatTableModule } from '@angular/material/table';
+import { map } from 'rxjs';
 
 import { BudgetEntry } from '../run-detail.models';
+
+/** Below this width the numbers come first and a line says the table scrolls sideways. */
+export const NARROW_BUDGET = '(max-width: 720px)';
+const WIDE_COLUMNS = ['source', 'distribution', 'u', 'sensitivity', 'share'];
+const NARROW_COLUMNS = ['source', 'share', 'u', 'sensitivity', 'distribution'];
 
 /** The uncertainty budget of r, largest share of u²(r) first. */
 @Component({
   selector: 'qw-budget-table',
   imports: [DecimalPipe, MatTableModule],
   template: `
-    <div class="table-scroll" tabindex="0" role="region" aria-label="Uncertainty budget, scrolls sideways on narrow screens">
+    @if (narrow()) {
+      <p class="cue" aria-hidden="true">Share first; swipe the table sideways for u, ∂r/∂x and the distribution →</p>
+    }
+    <div class="table-scroll" [class.narrow]="narrow()" tabindex="0" role="region" aria-label="Uncertainty budget, scrolls sideways on narrow screens">
       <table mat-table [dataSource]="rows()" aria-label="Uncertainty budget of the residual r">
         <ng-container matColumnDef="source">
           <th mat-header-cell *matHeaderCellDef>Source</th>
@@ -36,13 +47,15 @@ import { BudgetEntry } from '../run-detail.models';
             </span>
           </td>
         </ng-container>
-        <tr mat-header-row *matHeaderRowDef="columns"></tr>
-        <tr mat-row *matRowDef="let row; columns: columns"></tr>
+        <tr mat-header-row *matHeaderRowDef="columns()"></tr>
+        <tr mat-row *matRowDef="let row; columns: columns()"></tr>
       </table>
     </div>
   `,
   styles: `
     table { width: 100%; }
+    .cue { margin: 0 0 0.5rem; color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); }
+    .narrow .mat-column-source { min-width: 9rem; }
     .mat-column-source { min-width: 12rem; }
     .number { text-align: end; font-variant-numeric: tabular-nums; white-space: nowrap; }
     .share { display: flex; align-items: center; gap: 0.5rem; min-width: 10rem; }
@@ -55,7 +68,9 @@ import { BudgetEntry } from '../run-detail.models';
 export class BudgetTable {
   readonly budget = input.required<readonly BudgetEntry[]>();
 
-  protected readonly columns = ['source', 'distribution', 'u', 'sensitivity', 'share'];
+  /** At phone width the share comes straight after the source, so the deciding number is on screen. */
+  protected readonly narrow = toSignal(inject(BreakpointObserver).observe(NARROW_BUDGET).pipe(map((state) => state.matches)), { initialValue: false });
+  protected readonly columns = computed(() => (this.narrow() ? NARROW_COLUMNS : WIDE_COLUMNS));
   protected readonly rows = computed(() => [...this.budget()].sort((a, b) => b.share - a.share));
 
   /** Three significant digits; powers of ten outside 0.001 … 100 000 so no value reads as 0. */

@@ -12,7 +12,8 @@ import { UnitKind, unitLabel, unitsOf } from '../unit-table';
   template: `
     <mat-form-field appearance="outline" subscriptSizing="dynamic" class="unit-field">
       @if (showLabel()) {
-        <mat-label>{{ label() }}</mat-label>
+        <!-- A long label overlaps a narrow unit field's outline: "Unit" shows, the full label is the accessible name. -->
+        <mat-label>Unit</mat-label>
       }
       <mat-select [formControl]="control()" [aria-label]="label()">
         @for (unit of units(); track unit) {
