@@ -84,7 +84,7 @@ describe('ApparatusForm', () => {
     type('Piston bore', '32.5');
     type('Fixed volume', '1.2');
     type('Heat capacity', '410');
-    type('Heat capacity, standard uncertainty', '6');
+    type('u(heat capacity)', '6');
     await submit();
 
     const request = httpTesting.expectOne('/api/apparatus');
