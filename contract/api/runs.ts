@@ -18,6 +18,8 @@ export interface ChannelEntry {
   /** Or an instrument described inside the run (imported run documents). */
   instrument?: string;
   reference?: PressureReference;
+  /** Decimals the readings were typed or imported with (0–12), so that 3.000 V is shown back as 3.000 V. */
+  decimals?: number;
 }
 
 export type GasSetup =

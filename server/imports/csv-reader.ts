@@ -2,7 +2,7 @@ import { parse } from 'csv-parse/sync';
 import { badRequest } from '../core/problem';
 import type { ImportLimits } from './import-limits';
 import { unreadableFile } from './import-problems';
-import { parseNumber, type Cell, type RawTable } from './raw-table';
+import { parseNumber, placesOfText, type Cell, type RawTable } from './raw-table';
 import { HEADER_SEARCH_ROWS } from './xlsx-reader';
 
 export type Delimiter = ',' | ';' | '\t';
@@ -75,15 +75,19 @@ export function readCsv(buf: Buffer, filename: string, limits: ImportLimits, opt
   const rows: RawTable['rows'] = [];
   records.forEach((record, i) => {
     let any = false;
-    const cells: Cell[] = record.map((raw) => {
+    const places: Array<number | null> = [];
+    const cells: Cell[] = record.map((raw, c) => {
+      places[c] = null;
       if (raw === '') return null;
       any = true;
       const n = parseNumber(raw, decimal);
       if (n === null && decimal === '.' && DECIMAL_COMMA.test(raw)) commaDecimals += 1;
+      // The digits as written: "3.000" keeps its three decimals, which the number 3 forgets.
+      if (n !== null) places[c] = placesOfText(decimal === ',' ? raw.replace(',', '.') : raw);
       return n ?? raw;
     });
     // Line numbers as an editor shows them (quoted line breaks inside a field are not expected in logger files).
-    if (any) rows.push({ n: i + 1, cells });
+    if (any) rows.push({ n: i + 1, cells, places });
   });
   if (!options.decimal && commaDecimals > 0 && commaDecimals >= rows.length / 2) {
     throw unreadableFile(`"${filename}" writes its numbers with a decimal comma (like 1,25). Choose the decimal mark "," and upload it again.`);

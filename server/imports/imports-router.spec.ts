@@ -72,7 +72,8 @@ describe('import of a logger workbook into a new draft', () => {
     runId = res.body.runId;
     const run = await tech.get(`/api/runs/${runId}`);
     expect(run.body).toMatchObject({ state: 'draft', title: 'Isothermal expansion imported from PC-3' });
-    expect(run.body.setup.channels.pressure).toEqual({ unit: 'kPa', reference: 'absolute' });
+    // The workbook's General cells carry their own digits: 99.53 kPa has two decimals, the most any pressure reading has.
+    expect(run.body.setup.channels.pressure).toEqual({ unit: 'kPa', reference: 'absolute', decimals: 2 });
     for (const [k] of HEADERS) {
       const expected = k === 'time' ? r[k].values : r[k].values.map((v) => toSi(KIND[k], r[k].unit, v));
       const got = run.body.readings[k] as number[];

@@ -5,7 +5,8 @@ export type Cell = number | string | null;
 export interface RawTable {
   /** Sheet name for workbooks, null for CSV. */
   sheet: string | null;
-  rows: Array<{ n: number; cells: Cell[] }>;
+  /** `places`: for each number cell, the decimals it was written with (the text, or a workbook cell's number format). */
+  rows: Array<{ n: number; cells: Cell[]; places?: Array<number | null> }>;
   notes: string[];
   /** Merged ranges of the sheet ("A1:C1"), refused when they touch the table. */
   merges: string[];
@@ -18,6 +19,29 @@ export function parseNumber(text: string, decimal: '.' | ','): number | null {
   const s = decimal === ',' ? text.replace(',', '.') : text;
   if (decimal === ',' && text.includes('.')) return null; // "1.234,5" style thousands are not guessed at
   return NUMBER.test(s) ? Number(s) : null;
+}
+
+/** Most decimals recorded for a column (as a run channel's `decimals`). */
+const MAX_PLACES = 12;
+
+/** Decimals a number is written with: "3.000" → 3, "5e-4" → 4, "2.50E+3" → 0; null when it is not a number. */
+export function placesOfText(text: string): number | null {
+  const m = /^[+-]?(\d*)(?:\.(\d*))?(?:[eE]([+-]?\d+))?$/.exec(text.trim());
+  if (!m || (m[1] === '' && !m[2])) return null;
+  return Math.min(MAX_PLACES, Math.max(0, (m[2]?.length ?? 0) - Number(m[3] ?? 0)));
+}
+
+/**
+ * Decimals a spreadsheet number format shows: "0.000" → 3, "#,##0.0" → 1, "0.00E+00" and "General" → null
+ * (the value's own digits decide), the first section of "0.00;[Red]-0.00" only.
+ */
+export function placesOfFormat(format: string | undefined): number | null {
+  if (!format || /general/i.test(format)) return null;
+  const section = format.split(';')[0].replace(/"[^"]*"|\\.|\[[^\]]*\]/g, '');
+  if (/[eE][+-]/.test(section) || /[dmyhs]/i.test(section)) return null;
+  const m = /\.([0#?]+)/.exec(section);
+  if (m) return Math.min(MAX_PLACES, m[1].length);
+  return /[0#?]/.test(section) ? 0 : null;
 }
 
 /** Column letters of a 1-based column number, as spreadsheets show them (1 → A, 28 → AB). */

@@ -116,7 +116,11 @@ export function checkRows(table: ParsedTable, mapping: ImportMapping): RowCheck 
         fail(i, c.index, `text "${show(v)}" in a numeric column (${c.channel}, ${c.unit})`);
       }
     }
-    channels[c.channel] = { unit: c.unit, values, ...(c.reference ? { reference: c.reference } : {}), ...(c.instrumentId !== undefined ? { instrumentId: c.instrumentId } : {}) };
+    const decimals = table.decimals?.[c.index];
+    channels[c.channel] = {
+      unit: c.unit, values, ...(c.reference ? { reference: c.reference } : {}), ...(c.instrumentId !== undefined ? { instrumentId: c.instrumentId } : {}),
+      ...(typeof decimals === 'number' ? { decimals } : {}),
+    };
     if (min <= max) perChannel[c.channel] = { min, max, unit: c.unit };
   }
   const first = timeValues[0];

@@ -14,6 +14,8 @@ export interface ParsedTable {
   rowNumbers: number[];
   /** Column-major data: columns[c][i] is the cell of data row i. */
   columns: Cell[][];
+  /** Per column, the most decimals its numbers were written with (null: none, or not known for tables stored before it). */
+  decimals?: Array<number | null>;
   notes: string[];
 }
 
@@ -74,10 +76,15 @@ export function buildTable(raw: RawTable, kind: ParsedTable['kind'], filename: s
   });
   const columns: Cell[][] = headers.map(() => new Array<Cell>(data.length));
   const rowNumbers = new Array<number>(data.length);
+  const decimals = new Array<number | null>(width).fill(null);
   for (let i = 0; i < data.length; i++) {
-    const cells = data[i].cells;
+    const { cells, places } = data[i];
     rowNumbers[i] = data[i].n;
-    for (let c = 0; c < width; c++) columns[c][i] = cells[c] ?? null;
+    for (let c = 0; c < width; c++) {
+      columns[c][i] = cells[c] ?? null;
+      const p = places?.[c];
+      if (typeof p === 'number' && (decimals[c] === null || p > decimals[c]!)) decimals[c] = p;
+    }
   }
-  return { kind, sheet: raw.sheet, headerRow, headers, rowNumbers, columns, notes: raw.notes };
+  return { kind, sheet: raw.sheet, headerRow, headers, rowNumbers, columns, decimals, notes: raw.notes };
 }

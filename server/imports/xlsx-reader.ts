@@ -2,7 +2,7 @@ import ExcelJS from 'exceljs';
 import { Readable } from 'node:stream';
 import type { ImportLimits } from './import-limits';
 import { unreadableFile } from './import-problems';
-import { columnLetter, type Cell, type RawTable } from './raw-table';
+import { columnLetter, placesOfFormat, placesOfText, type Cell, type RawTable } from './raw-table';
 import { inspectWorkbook, tookTooLong } from './zip-inspection';
 
 /** Rows above the header that a logger may write (title, serial number, notes). */
@@ -54,6 +54,7 @@ export async function readXlsx(buf: Buffer, filename: string, limits: ImportLimi
       if (row.number % 1000 === 0 && Date.now() > deadline) throw tookTooLong(limits);
       const values = row.values as ExcelValue[];
       const cells: Cell[] = [];
+      const places: Array<number | null> = [];
       let any = false;
       for (let c = 1; c < values.length; c++) {
         let v: unknown = values[c];
@@ -70,10 +71,12 @@ export async function readXlsx(buf: Buffer, filename: string, limits: ImportLimi
         }
         const cell = plain(v);
         cells.push(cell);
+        // The decimals the sheet shows: its number format ("0.000"), else the value's own digits (General).
+        places.push(typeof cell === 'number' ? (placesOfFormat(row.getCell(c).numFmt) ?? placesOfText(String(cell))) : null);
         if (cell !== null) any = true;
       }
       if (!any) continue;
-      rows.push({ n: row.number, cells });
+      rows.push({ n: row.number, cells, places });
       if (rows.length > rowCap) {
         throw unreadableFile(`"${filename}" has more than ${limits.maxRows} rows of data, the most Qwell imports at once. Split the file into smaller parts.`);
       }

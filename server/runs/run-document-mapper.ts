@@ -5,7 +5,7 @@ import { RUN_FORMAT, RUN_FORMAT_VERSION, type Apparatus, type Instrument, type R
 import { differenceToSi, fromSi, toSi, type UnitKind } from '../engine/units';
 import { badRequest, type FieldError } from '../core/problem';
 import { columnOf, readingAt, readingsToSi, TIME_FACTORS, type ColumnsInput } from './readings-columns';
-import { CHANNELS, channelNames, type ChannelName, type ChannelSetup, type RunSetup } from './run-setup';
+import { CHANNELS, MAX_DECIMALS, channelNames, isDecimals, type ChannelName, type ChannelSetup, type RunSetup } from './run-setup';
 
 export type ReadingRow = Omit<InferSelectModel<typeof readings>, 'runId'>;
 type RegisterInstrument = InferSelectModel<typeof instruments> & { calibration: InferSelectModel<typeof calibrations> | null };
@@ -198,13 +198,16 @@ export function parseReadingsInput(body: { time?: unknown; channels?: unknown })
       if (!(channelNames as string[]).includes(name)) {
         errors.push({ field: `channels.${name}`, message: `unknown channel "${name}"; channels are ${channelNames.join(', ')}` });
       } else if (!isPlainObject(c) || typeof c['unit'] !== 'string' || !Array.isArray(c['values'])) {
-        errors.push({ field: `channels.${name}`, message: `${name} must be { unit, values: [...], instrumentId?, reference? }` });
+        errors.push({ field: `channels.${name}`, message: `${name} must be { unit, values: [...], instrumentId?, reference?, decimals? }` });
       } else {
         if (c['instrumentId'] !== undefined && !Number.isInteger(c['instrumentId'])) errors.push({ field: `channels.${name}.instrumentId`, message: 'instrumentId must be the id of a register instrument' });
         if (c['reference'] !== undefined && (name !== 'pressure' || !['absolute', 'gauge'].includes(c['reference'] as string))) {
           errors.push({ field: `channels.${name}.reference`, message: 'reference is "absolute" or "gauge", and only for pressure' });
         }
-        const extra = Object.keys(c).filter((k) => !['unit', 'values', 'instrumentId', 'instrument', 'reference'].includes(k));
+        if (c['decimals'] !== undefined && !isDecimals(c['decimals'])) {
+          errors.push({ field: `channels.${name}.decimals`, message: `decimals is the number of decimals the readings were entered with, a whole number from 0 to ${MAX_DECIMALS}` });
+        }
+        const extra = Object.keys(c).filter((k) => !['unit', 'values', 'instrumentId', 'instrument', 'reference', 'decimals'].includes(k));
         if (extra.length) errors.push({ field: `channels.${name}`, message: `unknown field(s) ${extra.join(', ')}` });
       }
     }

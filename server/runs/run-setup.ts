@@ -15,7 +15,13 @@ export interface ChannelSetup {
   /** Or an instrument described inside the run (from an imported run document). */
   instrument?: string;
   reference?: 'absolute' | 'gauge';
+  /** Decimals the readings were entered (or imported) with, so that 3.000 V is shown back as 3.000 V. */
+  decimals?: number;
 }
+
+/** Most decimals a channel's entered digits may record (beyond a double's 15–17 significant digits is noise). */
+export const MAX_DECIMALS = 12;
+export const isDecimals = (v: unknown): v is number => Number.isInteger(v) && (v as number) >= 0 && (v as number) <= MAX_DECIMALS;
 
 /**
  * Everything about a run except its readings and the columns of the runs table: what the run

@@ -1,7 +1,7 @@
 import { SPECIES } from '../engine/gases';
 import { isIsoDate, isUnit, toSi, type UnitKind } from '../engine/units';
 import { badRequest, type FieldError } from '../core/problem';
-import { CHANNELS, channelNames } from './run-setup';
+import { CHANNELS, MAX_DECIMALS, channelNames, isDecimals } from './run-setup';
 
 /** Largest id PostgreSQL's integer column holds; a larger instrumentId could never be read back. */
 const MAX_ID = 2 ** 31 - 1;
@@ -104,12 +104,14 @@ function checkChannels(c: SetupCheck, channels: unknown) {
   for (const [name, channel] of Object.entries(channels)) {
     if (!(channelNames as string[]).includes(name)) continue;
     const f = `setup.channels.${name}`;
-    if (!c.object(channel, f, ['unit', 'instrumentId', 'instrument', 'reference'])) continue;
+    if (!c.object(channel, f, ['unit', 'instrumentId', 'instrument', 'reference', 'decimals'])) continue;
     if (!isUnit(CHANNELS[name as keyof typeof CHANNELS], channel['unit'])) c.add(`${f}.unit`, `must be a ${CHANNELS[name as keyof typeof CHANNELS]} unit, got ${JSON.stringify(channel['unit'])}`);
     const id = channel['instrumentId'];
     if (id !== undefined && (!Number.isInteger(id) || (id as number) < 1 || (id as number) > MAX_ID)) c.add(`${f}.instrumentId`, 'must be the id of an instrument of the register (a whole number from 1)');
     c.text(channel['instrument'], `${f}.instrument`, 100);
     if (channel['reference'] !== undefined && channel['reference'] !== 'absolute' && channel['reference'] !== 'gauge') c.add(`${f}.reference`, 'must be "absolute" or "gauge"');
+    const decimals = channel['decimals'];
+    if (decimals !== undefined && !isDecimals(decimals)) c.add(`${f}.decimals`, `must be the number of decimals the readings were entered with, a whole number from 0 to ${MAX_DECIMALS}, got ${JSON.stringify(decimals)}`);
   }
 }
 

@@ -42,6 +42,17 @@ describe('ReadingsTable', () => {
     expect(cells).toEqual([['0', '1'], ['500.0', '502.5'], ['21.50', '21.62'], ['3.000', '3.012']]);
   });
 
+  it('shows 3.000 V as 3.000 V when the channel recorded three decimals, even if every reading ends in zeros', () => {
+    const flat = { ...readings, voltage: [3, 3] } as RunReadings;
+    const recorded: RunSetup = { ...setup, channels: { ...setup.channels, voltage: { unit: 'V', decimals: 3 } } };
+    const cells = (s: RunSetup | null) => Object.fromEntries(readingColumns(flat, s, false).map((c) => [c.key, c.values.map((v) => formatReading(c, v))]));
+    expect(cells(recorded)['voltage']).toEqual(['3.000', '3.000']);
+    // A channel without recorded decimals beside it still takes its most precise reading's.
+    expect(cells(recorded)['volume']).toEqual(['500.0', '502.5']);
+    // A run stored before decimals were recorded infers them from its most precise reading, so this column shows "3".
+    expect(cells(setup)['voltage']).toEqual(['3', '3']);
+  });
+
   it('switches to SI units on request and back, saying which it shows', async () => {
     const { fixture, root, text } = await render();
     const toggle = root.querySelector<HTMLButtonElement>('button')!;

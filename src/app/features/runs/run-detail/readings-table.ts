@@ -9,7 +9,7 @@ import { CHANNEL_KINDS, UnitKind, displayFromSi, fromSi, unitLabel, unitsOf } fr
 /** Row height in px; the virtual scroll needs it fixed. */
 const ROW_HEIGHT = 32;
 
-/** At most this many decimals are shown; a column's own count comes from its readings. */
+/** At most this many decimals are inferred from the readings of a run that recorded none. */
 const MAX_DECIMALS = 9;
 
 export interface ReadingColumn {
@@ -31,8 +31,8 @@ function decimalsOf(text: string): number | null {
 }
 
 /**
- * The readings, read-only, in the unit each channel was entered in, with as many decimals as the column's
- * most precise reading (so 3.000 V beside 3.012 V stays 3.000 V); SI on demand. Only the channels the run
+ * The readings, read-only, in the unit each channel was entered in, with the decimals they were entered in
+ * (so 3.000 V stays 3.000 V; runs that recorded none take their most precise reading's); SI on demand. Only the channels the run
  * has. Scrolls to and marks one reading on request.
  */
 @Component({
@@ -117,15 +117,19 @@ export class ReadingsTable {
   }
 }
 
-/** The run's columns, each in the unit it was entered in (or SI), with the decimals of its most precise reading. */
+/**
+ * The run's columns, each in the unit it was entered in (or SI), with the decimals recorded for the channel
+ * when its readings were entered or imported, or else those of its most precise reading.
+ */
 export function readingColumns(readings: RunReadings, setup: RunSetup | null, si: boolean): ReadingColumn[] {
   const present = READING_CHANNELS.filter((channel) => readings[channel]?.some((value) => value !== null));
   const timeUnit = setup?.time?.unit;
-  const column = (key: 'time' | ReadingChannel, kind: UnitKind, entered: string | undefined, values: readonly (number | null)[]): ReadingColumn => {
+  const column = (key: 'time' | ReadingChannel, kind: UnitKind, entered: string | undefined, values: readonly (number | null)[], recorded?: number): ReadingColumn => {
     const known = !si && entered !== undefined && unitsOf(kind).includes(entered);
     const shownUnit = known ? entered! : READING_SI_UNITS[key];
-    let decimals: number | null = 0;
-    if (known) {
+    // The decimals recorded when the readings were typed or imported; runs stored before that infer them.
+    let decimals: number | null = recorded ?? 0;
+    if (known && recorded === undefined) {
       for (const value of values) {
         const d = value === null ? 0 : decimalsOf(displayFromSi(kind, shownUnit, value));
         decimals = d === null || decimals === null ? null : Math.max(decimals, d);
@@ -133,12 +137,15 @@ export function readingColumns(readings: RunReadings, setup: RunSetup | null, si
     }
     return {
       key, label: CHANNEL_LABELS[key], unit: unitLabel(shownUnit), values, kind: known ? kind : null, shownUnit,
-      decimals: known && decimals !== null ? Math.min(decimals, MAX_DECIMALS) : null,
+      decimals: known && decimals !== null ? Math.min(decimals, recorded ?? MAX_DECIMALS) : null,
     };
   };
   return [
     column('time', 'time', timeUnit === 'iso' ? undefined : timeUnit, readings.time),
-    ...present.map((channel) => column(channel, CHANNEL_KINDS[channel], setup?.channels?.[channel]?.unit, readings[channel])),
+    ...present.map((channel) => {
+      const entry = setup?.channels?.[channel];
+      return column(channel, CHANNEL_KINDS[channel], entry?.unit, readings[channel], entry?.decimals);
+    }),
   ];
 }
 

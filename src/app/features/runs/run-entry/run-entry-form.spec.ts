@@ -132,10 +132,20 @@ describe('run entry form', () => {
       version: 4,
       time: { unit: 's', values: [0, 10, 20] },
       channels: {
-        pressure: { unit: 'kPa', instrumentId: 1, reference: 'absolute', values: [101.3, 150.2, null] },
-        volume: { unit: 'mL', values: [250, null, 125.5] },
+        pressure: { unit: 'kPa', instrumentId: 1, reference: 'absolute', decimals: 1, values: [101.3, 150.2, null] },
+        volume: { unit: 'mL', decimals: 1, values: [250, null, 125.5] },
       },
     });
+  });
+
+  it('records the decimals each channel was typed with, so that 3.000 comes back as 3.000 and not 3', () => {
+    const sheet = new ReadingsSheet(3, { time: ['0', '1', '2'], voltage: ['3.000', '3.000', '3.000'], volume: ['5e-4', '2.5E-3', ''], current: ['12', '', ''] });
+    expect(sheet.decimalsOf('voltage')).toBe(3);
+    expect(sheet.decimalsOf('volume')).toBe(4);
+    expect(sheet.decimalsOf('current')).toBe(0);
+    expect(sheet.decimalsOf('pressure')).toBeNull();
+    const form = filledForm();
+    expect(setupOf(form.getRawValue(), gases, {}, new ReadingsSheet(1, { pressure: ['101.300'] })).channels?.pressure?.decimals).toBe(3);
   });
 
   it('loads a stored draft back into the form, readings in their entered units', () => {

@@ -13,7 +13,7 @@ import {
 import { RunRecord } from '../run-detail.models';
 import { Gas } from '../../gases/gases.models';
 import { ReadingsSheet, SheetKey } from './readings-grid/readings-sheet';
-import { CHANNEL_KINDS, DEFAULT_UNITS, displayFromSi } from './unit-table';
+import { CHANNEL_KINDS, DEFAULT_UNITS, displayFromSi, fromSi } from './unit-table';
 import { standardizationControls, standardizationFromSetup, standardizationSetup } from './standardization-fields';
 
 export type GasModel = 'species' | 'equipartition' | 'calorimeter';
@@ -123,7 +123,7 @@ export function enabledChannels(value: RunFormValue): ReadingChannel[] {
 }
 
 /** The POST body, or null while project, title, process or date are still missing. */
-export function createBody(form: RunForm, gases: readonly Gas[], base: RunSetup = {}): CreateRunBody | null {
+export function createBody(form: RunForm, gases: readonly Gas[], base: RunSetup = {}, sheet?: ReadingsSheet): CreateRunBody | null {
   const { projectId, title, process, runDate } = form.controls;
   if (projectId.invalid || title.invalid || process.invalid || runDate.invalid) {
     return null;
@@ -137,12 +137,12 @@ export function createBody(form: RunForm, gases: readonly Gas[], base: RunSetup 
     runDate: v.runDate,
     ...(gasId !== null ? { gasId } : {}),
     ...(v.apparatusId !== null ? { apparatusId: v.apparatusId } : {}),
-    setup: setupOf(v, gases, base),
+    setup: setupOf(v, gases, base, sheet),
   };
 }
 
 /** The PATCH body: every field the form owns, at the given version. */
-export function updateBody(version: number, form: RunForm, gases: readonly Gas[], base: RunSetup = {}): UpdateRunBody {
+export function updateBody(version: number, form: RunForm, gases: readonly Gas[], base: RunSetup = {}, sheet?: ReadingsSheet): UpdateRunBody {
   const v = form.getRawValue();
   return {
     version,
@@ -151,7 +151,7 @@ export function updateBody(version: number, form: RunForm, gases: readonly Gas[]
     runDate: v.runDate,
     gasId: v.gasModel === 'species' ? v.gasId : null,
     apparatusId: v.apparatusId,
-    setup: setupOf(v, gases, base),
+    setup: setupOf(v, gases, base, sheet),
   };
 }
 
@@ -161,7 +161,7 @@ const withU = (u: number | null) => (u !== null ? { u } : {});
  * The setup document from the form, on top of what the run already held: keys the form does not
  * own (notes, run-specific apparatus values, described instruments) pass through unchanged.
  */
-export function setupOf(v: RunFormValue, gases: readonly Gas[], base: RunSetup = {}): RunSetup {
+export function setupOf(v: RunFormValue, gases: readonly Gas[], base: RunSetup = {}, sheet?: ReadingsSheet): RunSetup {
   const { gas: _gas, amount: _amount, processIndex: _n, ambient: _ambient, channels: _channels, purpose: _p, heatSource: _h, ...kept } = base;
   const setup: RunSetup = { ...kept, time: { unit: v.timeUnit }, ...standardizationSetup(v.standardization, v.gasModel === 'calorimeter') };
   const species = gases.find((g) => g.id === v.gasId)?.code;
@@ -197,22 +197,25 @@ export function setupOf(v: RunFormValue, gases: readonly Gas[], base: RunSetup =
   if (ambient.pressure || ambient.temperature) {
     setup.ambient = ambient;
   }
-  const channels = channelEntries(v, base);
+  const channels = channelEntries(v, base, sheet);
   if (Object.keys(channels).length) {
     setup.channels = channels;
   }
   return setup;
 }
 
-function channelEntries(v: RunFormValue, base: RunSetup): NonNullable<RunSetup['channels']> {
+/** Each channel switched on, with the decimals its readings were typed with (from the sheet, else as stored). */
+function channelEntries(v: RunFormValue, base: RunSetup, sheet?: ReadingsSheet): NonNullable<RunSetup['channels']> {
   const out: NonNullable<RunSetup['channels']> = {};
   for (const name of enabledChannels(v)) {
     const c = v.channels[name];
     const described = base.channels?.[name]?.instrument;
+    const decimals = sheet ? sheet.decimalsOf(name) : (base.channels?.[name]?.decimals ?? null);
     out[name] = {
       unit: c.unit,
       ...(c.instrumentId !== null ? { instrumentId: c.instrumentId } : described ? { instrument: described } : {}),
       ...(name === 'pressure' ? { reference: c.reference } : {}),
+      ...(decimals !== null ? { decimals } : {}),
     };
   }
   return out;
@@ -222,7 +225,7 @@ function channelEntries(v: RunFormValue, base: RunSetup): NonNullable<RunSetup['
 export function readingsBody(version: number, v: RunFormValue, sheet: ReadingsSheet, base: RunSetup = {}): ReadingsBody {
   const names = enabledChannels(v);
   const values = sheet.values(['time', ...names]);
-  const entries = channelEntries(v, base);
+  const entries = channelEntries(v, base, sheet);
   const channels: ReadingsBody['channels'] = {};
   for (const name of names) {
     channels[name] = { ...entries[name]!, values: values.channels[name] ?? [] };
@@ -280,7 +283,10 @@ export function loadDraft(form: RunForm, draft: StoredDraft, gases: readonly Gas
       reference: entry?.reference ?? 'absolute',
     });
     if (entry) {
-      columns[name] = (draft.readings[name] ?? []).map((si) => displayFromSi(CHANNEL_KINDS[name], entry.unit, si));
+      // Typed digits come back as typed: 3.000 stays 3.000 (not 3), which would lose the recorded decimals.
+      const places = entry.decimals;
+      columns[name] = (draft.readings[name] ?? []).map((si) =>
+        si === null || places === undefined ? displayFromSi(CHANNEL_KINDS[name], entry.unit, si) : fromSi(CHANNEL_KINDS[name], entry.unit, si).toFixed(places));
     }
   }
   return new ReadingsSheet(Math.max(1, draft.readings.count), columns);

@@ -285,9 +285,9 @@ export class RunEntry implements OnInit {
   private begin(draft: RunRecord | null): void {
     const source: AutosaveSource = {
       create: () =>
-        createBody(this.form, this.gases(), this.setupBase()) ??
+        createBody(this.form, this.gases(), this.setupBase(), this.sheet()) ??
         'give the project, a title of at least 3 characters, the process and the run date first.',
-      update: (version) => updateBody(version, this.form, this.gases(), this.setupBase()),
+      update: (version) => updateBody(version, this.form, this.gases(), this.setupBase(), this.sheet()),
       readings: (version) => {
         const rows = this.sheet().rowsWithErrors(this.gridColumns());
         if (rows.length) {

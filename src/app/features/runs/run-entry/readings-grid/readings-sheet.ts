@@ -161,6 +161,25 @@ export class ReadingsSheet {
     return { time, channels };
   }
 
+  /**
+   * The most decimals the column's numbers were typed with ("3.000" → 3, "5e-4" → 4), at most 12; null
+   * when it holds no number. The run page shows the readings back with them.
+   */
+  decimalsOf(key: SheetKey): number | null {
+    let most: number | null = null;
+    for (const text of this.data.get(key) ?? []) {
+      const m = NUMBER.exec(text.trim());
+      if (!m) {
+        continue;
+      }
+      const [mantissa, exponent] = text.trim().toLowerCase().split('e');
+      const dot = mantissa.indexOf('.');
+      const places = Math.min(12, Math.max(0, (dot < 0 ? 0 : mantissa.length - dot - 1) - Number(exponent ?? 0)));
+      most = most === null ? places : Math.max(most, places);
+    }
+    return most;
+  }
+
   /** The largest number in a column, or null when it has none. */
   maxOf(key: SheetKey): number | null {
     let max: number | null = null;
