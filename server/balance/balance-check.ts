@@ -44,6 +44,11 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
       }]);
       return 'invalid';
     }
+    // A check of a version already checked (the queue delivers at least once; a lost job is swept up again)
+    // must not mail the same safety event twice: was it already found, and so mailed, for this version?
+    const [mailedBefore] = await tx.select({ id: balanceResults.id }).from(balanceResults)
+      .where(and(eq(balanceResults.runId, runId), eq(balanceResults.runVersion, version), sql`${balanceResults.result}->'flags' @> '[{"code":"ABOVE_RATED_PRESSURE"}]'::jsonb`))
+      .limit(1);
     const pin = await runStandardization(tx, locked.apparatusId, locked.runDate, { useFittedHeatLoss: config.useFittedHeatLoss, setup: (locked.setup ?? {}) as RunSetup });
     const result = { ...checked.result, standardization: pin.standardization, flags: pin.flag ? [...checked.result.flags, pin.flag] : checked.result.flags };
     await tx.update(balanceResults).set({ current: false }).where(and(eq(balanceResults.runId, runId), eq(balanceResults.current, true)));
@@ -62,8 +67,8 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
       await queueMail(tx, [...new Set([...investigators, author.email])].map((to) => ({ to, subject: `Run ${locked.code}: the energy balance breaks`, body })));
     }
     const over = overPressureOf(result);
-    if (over) {
-      // A safety event, whatever the verdict: the project's investigators and every quality officer hear of it.
+    if (over && !mailedBefore) {
+      // A safety event, whatever the verdict: the project's investigators and every quality officer hear of it, once per run version.
       const to = new Set([...(await projectAddresses(tx, locked.projectId, 'investigator')), ...(await roleAddresses(tx, ['quality']))]);
       const mail = overPressureMail(locked, over, runLink(config.publicUrl, runId));
       await queueMail(tx, [...to].map((address) => ({ to: address, ...mail })));

@@ -1,8 +1,9 @@
-import { eq } from 'drizzle-orm';
-import { mailOutbox, projects } from '../../db/schema';
+import { and, eq } from 'drizzle-orm';
+import { balanceResults, mailOutbox, projects, runs } from '../../db/schema';
 import { demoEmail } from '../../db/seed/demo-lab';
 import { clientAs, eventually, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { loadFixture, runBodies } from '../../testing/fixture-runs';
+import { runBalanceCheck } from './balance-check';
 import { overPressureOf } from './over-pressure';
 
 // Over the rated pressure is a safety event: a gauge rating read above the run's barometer, a mail to the
@@ -80,6 +81,19 @@ describe('a run above a gauge rating', () => {
     expect(body).not.toMatch(/\d Pa\b/);
     expect(body).toContain('Local codes and the lab\'s licensed safety practice take precedence');
     expect(body).toContain(`/runs/${run.id}`);
+  });
+
+  it('mails once per run version: a second check of the same version stores its result but queues no second safety mail', async () => {
+    const subject = `Safety: run ${run.code} went above its vessel's rated pressure`;
+    const before = await h.handle.db.select().from(mailOutbox).where(eq(mailOutbox.subject, subject));
+    expect(before.length).toBeGreaterThan(0);
+    const [row] = await h.handle.db.select({ version: runs.version }).from(runs).where(eq(runs.id, run.id));
+    // The queue delivers at least once: the same job again, as a retry or the sweep would.
+    expect(await runBalanceCheck(h.handle.db, h.config, run.id, row.version)).toBe('stored');
+    const results = await h.handle.db.select({ id: balanceResults.id }).from(balanceResults).where(and(eq(balanceResults.runId, run.id), eq(balanceResults.runVersion, row.version)));
+    expect(results.length).toBe(2);
+    const after = await h.handle.db.select().from(mailOutbox).where(eq(mailOutbox.subject, subject));
+    expect(after.map((m) => m.id)).toEqual(before.map((m) => m.id));
   });
 
   it('counts on the investigator\'s and the quality officer\'s home tile exactly what the tile\'s list shows', async () => {
