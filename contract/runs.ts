@@ -41,6 +41,13 @@ export type RunAction = (typeof RUN_ACTIONS)[number];
 export const REVIEW_ACTIONS = ['approve', 'return', 'reject'] as const satisfies readonly RunAction[];
 export type ReviewAction = (typeof REVIEW_ACTIONS)[number];
 
+/** A signature's decision in words, beside its meaning (the run page's history and the run report). */
+export const REVIEW_DECISION_LABELS: Readonly<Record<ReviewAction, string>> = {
+  approve: 'Approved',
+  return: 'Returned for correction',
+  reject: 'Rejected',
+};
+
 /**
  * What a run signature means, per decision: the signer chooses one of these sentences and it is
  * stored with the signature. Legally significant text: change it here, and only on purpose.

@@ -6,6 +6,7 @@ import { ownerDatabaseUrl } from '../config';
 import { clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
 import { takeCheckpoint, verifyAuditChain } from './audit-checkpoint';
 import { recordAuditAlone } from './audit-service';
+import { testAuditAction } from '../../testing/test-audit-action';
 
 let h: ApiHarness;
 beforeAll(async () => {
@@ -41,7 +42,7 @@ const putBackCheckpoint = (tx: postgres.TransactionSql, c: CheckpointRow) => tx`
 
 describe('signed checkpoints of the trail\'s head', () => {
   it('names the truncation when the newest events are deleted, which the chain alone cannot show', async () => {
-    for (const n of [1, 2, 3]) await recordAuditAlone(h.handle.db, { action: 'test.tail', entityType: 'test', entityId: n });
+    for (const n of [1, 2, 3]) await recordAuditAlone(h.handle.db, { action: testAuditAction('test.tail'), entityType: 'test', entityId: n });
     const checkpoint = (await takeCheckpoint(h.handle.db, h.config, 'manual'))!;
     expect((await verifyAuditChain(h.handle.db, h.config)).valid).toBe(true);
     const tail = await h.handle.db.select().from(auditEvents).where(gt(auditEvents.id, checkpoint.headId - 2)).orderBy(auditEvents.id);
@@ -67,7 +68,7 @@ describe('signed checkpoints of the trail\'s head', () => {
   });
 
   it('still names it when the newest checkpoints are deleted too: the copy outside the database keeps them', async () => {
-    await recordAuditAlone(h.handle.db, { action: 'test.tail-file', entityType: 'test' });
+    await recordAuditAlone(h.handle.db, { action: testAuditAction('test.tail-file'), entityType: 'test' });
     const checkpoint = (await takeCheckpoint(h.handle.db, h.config, 'manual'))!;
     expect(existsSync(h.config.auditAnchorDir) && readdirSync(h.config.auditAnchorDir).length).toBeTruthy();
     const [event] = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.id, checkpoint.headId));
@@ -110,7 +111,7 @@ describe('signed checkpoints of the trail\'s head', () => {
 
 describe('verify names every break', () => {
   it('lists an altered event after a removed one, with the count', async () => {
-    for (const n of [1, 2, 3, 4]) await recordAuditAlone(h.handle.db, { action: 'test.breaks', entityType: 'test', entityId: n, after: { n } });
+    for (const n of [1, 2, 3, 4]) await recordAuditAlone(h.handle.db, { action: testAuditAction('test.breaks'), entityType: 'test', entityId: n, after: { n } });
     const rows = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.action, 'test.breaks')).orderBy(desc(auditEvents.id)).limit(4);
     const [fourth, third, , first] = rows;
     const quality = await clientAs(h.app, 'quality');

@@ -1,7 +1,8 @@
 import { eq, inArray } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
 import { apparatus, gases, instruments, people, projects, runs, signatures } from '../../db/schema';
-import { actionLabel, fieldChanges, recordTypeLabel, type ReadableEvent, type ReferenceNames } from './audit-readable';
+import { auditActionLabel } from '../../contract/audit';
+import { fieldChanges, recordTypeLabel, type ReadableEvent, type ReferenceNames } from './audit-readable';
 
 /** The stored fields of an event that reading it needs. */
 export interface EventFields {
@@ -49,7 +50,7 @@ export async function readableEvents<T extends EventFields>(db: DbOrTx, events: 
     return {
       ...e,
       actorName: e.actorId === null ? null : names.get(e.actorId) ?? null,
-      actionLabel: actionLabel(e.action),
+      actionLabel: auditActionLabel(e.action),
       recordType: recordTypeLabel(e.entityType),
       record,
       changes: fieldChanges(e.before, e.after, refs),

@@ -1,4 +1,5 @@
-import { actionLabel, changesText, fieldChanges, readableLine, recordTypeLabel } from './audit-readable';
+import { auditActionLabel } from '../../contract/audit';
+import { changesText, fieldChanges, readableLine, recordTypeLabel } from './audit-readable';
 
 describe('the audit trail in plain words', () => {
   it('turns before/after into the fields that differ, with state codes as their labels', () => {
@@ -46,15 +47,17 @@ describe('the audit trail in plain words', () => {
   });
 
   it('names actions and record types in words, and falls back to a readable form for new actions', () => {
-    expect(actionLabel('run.submit')).toBe('Submitted for review');
-    expect(actionLabel('auth.sign-in-failed')).toBe('Sign-in failed');
-    expect(actionLabel('widget.re-calibrate')).toBe('Widget re calibrate');
+    // The contract's table: the run page's history reads the same words (run-history.spec.ts).
+    expect(auditActionLabel('run.submit')).toBe('Submitted the run for review');
+    expect(auditActionLabel('run.update')).toBe('Changed the run');
+    expect(auditActionLabel('auth.sign-in-failed')).toBe('Sign-in failed');
+    expect(auditActionLabel('widget.re-calibrate')).toBe('Widget re calibrate');
     expect(recordTypeLabel('column-map')).toBe('Column map');
   });
 
   it('makes one line for the exports\' readable column', () => {
-    const line = readableLine({ actorName: 'Lena Okonkwo', actionLabel: 'Submitted for review', recordType: 'Run', record: 'R-2026-0007 rev. 1', changes: fieldChanges({ state: 'draft' }, { state: 'submitted' }) }, 'technician@lab.test');
-    expect(line).toBe('Lena Okonkwo · Submitted for review · Run R-2026-0007 rev. 1: State: Draft → Submitted');
+    const line = readableLine({ actorName: 'Lena Okonkwo', actionLabel: 'Submitted the run for review', recordType: 'Run', record: 'R-2026-0007 rev. 1', changes: fieldChanges({ state: 'draft' }, { state: 'submitted' }) }, 'technician@lab.test');
+    expect(line).toBe('Lena Okonkwo · Submitted the run for review · Run R-2026-0007 rev. 1: State: Draft → Submitted');
     expect(readableLine({ actorName: null, actionLabel: 'Checked the energy balance', recordType: 'Run', record: '#3', changes: [] }, null))
       .toBe('Qwell (system) · Checked the energy balance · Run #3');
   });

@@ -1,4 +1,4 @@
-// The audit trail in the lab's words: actions as plain phrases, records by their codes, and before/after
+// The audit trail in the lab's words: actions as plain phrases (contract/audit.ts), records by their codes, and before/after
 // as a field-by-field difference. Pure: the names and codes are looked up by audit-names.ts.
 import { ROLE_LABELS } from '../../contract/roles';
 import { RUN_STATE_LABELS, VERDICT_LABELS } from '../../contract/runs';
@@ -9,57 +9,8 @@ import { UNIT_SYMBOLS } from '../../contract/units';
 export const RECORD_TYPE_LABELS: Readonly<Record<string, string>> = {
   run: 'Run', signature: 'Signature', instrument: 'Instrument', apparatus: 'Apparatus', person: 'Person',
   project: 'Project', import: 'Import', 'column-map': 'Column map', audit: 'Audit trail', lab: 'Lab', standardization: 'Standardization',
+  upload: 'Uploaded spreadsheet', drill: 'Audit trail drill',
 };
-
-/** What happened, as a short phrase a person reads aloud. */
-export const ACTION_LABELS: Readonly<Record<string, string>> = {
-  'run.create': 'Created the run',
-  'run.update': 'Changed the run',
-  'run.readings-replace': 'Replaced the readings',
-  'run.submit': 'Submitted for review',
-  'run.checked': 'Checked the energy balance',
-  'run.check-failed': 'Could not check the balance',
-  'run.approve': 'Approved',
-  'run.return': 'Returned for correction',
-  'run.reject': 'Rejected',
-  'run.revise': 'Started a correction (new revision)',
-  'run.export': 'Downloaded the run document',
-  'run.report': 'Printed the run report',
-  'signature.create': 'Signed',
-  'signature.refused': 'Signature refused',
-  'auth.sign-in': 'Signed in',
-  'auth.sign-out': 'Signed out',
-  'auth.sign-in-failed': 'Sign-in failed',
-  'auth.sign-in-refused': 'Sign-in refused',
-  'auth.account-locked': 'Account locked after failed sign-ins',
-  'instrument.create': 'Added the instrument',
-  'instrument.update': 'Changed the instrument',
-  'calibration.create': 'Added a calibration',
-  'apparatus.create': 'Added the apparatus',
-  'apparatus.update': 'Changed the apparatus',
-  'apparatus.change': 'Recorded a change to the apparatus (standardization due)',
-  'standardization.approve': 'Approved a standardization',
-  'seed.standardization': 'Loaded a demo standardization',
-  'person.create': 'Added the person',
-  'person.update': 'Changed the person',
-  'project.create': 'Created the project',
-  'project.update': 'Changed the project',
-  'project.members': 'Changed the project members',
-  'column-map.create': 'Saved a column map',
-  'import.upload': 'Uploaded a spreadsheet',
-  'import.commit': 'Imported the readings into a draft',
-  'audit.export': 'Exported the audit trail',
-  'mail.calibration-due': 'Mailed a calibration reminder',
-  'seed.demo-lab': 'Loaded the demo lab',
-  'seed.run': 'Loaded a demo run',
-};
-
-/** Sign-in and sign-out events, which the trail can leave out. */
-export const SIGN_IN_ACTIONS = ['auth.sign-in', 'auth.sign-out', 'auth.sign-in-failed', 'auth.sign-in-refused', 'auth.account-locked'] as const;
-
-export function actionLabel(action: string): string {
-  return ACTION_LABELS[action] ?? action.replace(/[.-]/g, ' ').replace(/^\w/, (c) => c.toUpperCase());
-}
 
 export function recordTypeLabel(entityType: string): string {
   return RECORD_TYPE_LABELS[entityType] ?? entityType;
@@ -198,7 +149,7 @@ export interface ReadableEvent {
   changes: FieldChange[];
 }
 
-/** The event as one sentence for exports: "Lena Okonkwo · Submitted for review · Run R-2026-0007: state: Draft → Submitted". */
+/** The event as one sentence for exports: "Lena Okonkwo · Submitted the run for review · Run R-2026-0007: state: Draft → Submitted". */
 export function readableLine(e: ReadableEvent, actorEmail: string | null): string {
   const who = e.actorName ?? actorEmail ?? 'Qwell (system)';
   const what = `${e.recordType} ${e.record}`.trim();

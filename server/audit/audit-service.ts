@@ -6,13 +6,14 @@ import type { SessionPerson } from '../core/session';
 import { eventHash, GENESIS_HASH, type ChainedFields } from './audit-chain';
 import type { AuditQuery } from './audit-dto';
 import { readableEvents } from './audit-names';
-import { SIGN_IN_ACTIONS } from './audit-readable';
+import { SIGN_IN_ACTIONS, type AuditAction } from '../../contract/audit';
 import { auditScope } from './audit-scope';
 
 export interface AuditInput {
   actorId?: number | null;
   actorEmail?: string | null;
-  action: string;
+  /** One of the contract's codes, so every event the server writes has its words on every screen. */
+  action: AuditAction;
   entityType: string;
   entityId?: string | number | null;
   before?: unknown;

@@ -5,6 +5,7 @@ import { ownerDatabaseUrl } from '../config';
 import { clientAs, startHarness, type ApiHarness } from '../../testing/api-harness';
 import { verifyAuditChain as verifyWith } from './audit-checkpoint';
 import { recordAuditAlone as recordAudit } from './audit-service';
+import { testAuditAction } from '../../testing/test-audit-action';
 
 let h: ApiHarness;
 beforeAll(async () => {
@@ -21,7 +22,7 @@ function superuser(): postgres.Sql {
 
 describe('the audit trail', () => {
   it('is refused UPDATE, DELETE and TRUNCATE by the database (its trigger, for the owner too)', async () => {
-    await recordAudit(h.handle.db, { action: 'test.event', entityType: 'test', after: { n: 1 } });
+    await recordAudit(h.handle.db, { action: testAuditAction('test.event'), entityType: 'test', after: { n: 1 } });
     const [last] = await h.handle.db.select().from(auditEvents).orderBy(sql`id desc`).limit(1);
     const su = superuser();
     try {
@@ -38,7 +39,7 @@ describe('the audit trail', () => {
   });
 
   it('names the altered event when someone tampers with a row behind the trigger\'s back', async () => {
-    for (let i = 0; i < 3; i++) await recordAudit(h.handle.db, { action: 'test.chain', entityType: 'test', entityId: i, after: { i } });
+    for (let i = 0; i < 3; i++) await recordAudit(h.handle.db, { action: testAuditAction('test.chain'), entityType: 'test', entityId: i, after: { i } });
     expect((await verifyAuditChain(h.handle.db)).valid).toBe(true);
     const rows = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.action, 'test.chain')).orderBy(auditEvents.id);
     const victim = rows[1];
@@ -68,8 +69,8 @@ describe('the audit trail', () => {
   });
 
   it('reports a removed event as a broken link', async () => {
-    await recordAudit(h.handle.db, { action: 'test.remove', entityType: 'test', entityId: 'a' });
-    await recordAudit(h.handle.db, { action: 'test.remove', entityType: 'test', entityId: 'b' });
+    await recordAudit(h.handle.db, { action: testAuditAction('test.remove'), entityType: 'test', entityId: 'a' });
+    await recordAudit(h.handle.db, { action: testAuditAction('test.remove'), entityType: 'test', entityId: 'b' });
     const [a, b] = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.action, 'test.remove')).orderBy(auditEvents.id);
     const su = superuser();
     try {

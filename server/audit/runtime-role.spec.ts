@@ -1,6 +1,7 @@
 import postgres from 'postgres';
 import { startHarness, type ApiHarness } from '../../testing/api-harness';
 import { recordAuditAlone } from './audit-service';
+import { testAuditAction } from '../../testing/test-audit-action';
 
 // The app's own database role (DATABASE_URL) may only append to the trail and read it: every statement
 // that could change, hide or unprotect a written event is refused by PostgreSQL's privileges, before
@@ -11,7 +12,7 @@ let h: ApiHarness;
 let app: postgres.Sql;
 beforeAll(async () => {
   h = await startHarness();
-  await recordAuditAlone(h.handle.db, { action: 'test.runtime-role', entityType: 'test' });
+  await recordAuditAlone(h.handle.db, { action: testAuditAction('test.runtime-role'), entityType: 'test' });
   app = postgres(process.env['DATABASE_URL']!, { onnotice: () => undefined, max: 1 });
 });
 afterAll(async () => {
@@ -69,7 +70,7 @@ describe('the runtime role (the one the app connects as)', () => {
 
   it('may still append to the trail and read it', async () => {
     const before = await app`SELECT count(*)::int AS n FROM audit_events`;
-    await recordAuditAlone(h.handle.db, { action: 'test.runtime-role', entityType: 'test' });
+    await recordAuditAlone(h.handle.db, { action: testAuditAction('test.runtime-role'), entityType: 'test' });
     const after = await app`SELECT count(*)::int AS n FROM audit_events`;
     expect(after[0].n).toBe(before[0].n + 1);
   });

@@ -7,6 +7,7 @@ import { recordAuditAlone } from '../audit/audit-service';
 import { canonicalJson } from '../core/canonical-json';
 import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { pdfPageCount, pdfTextRuns } from '../../testing/pdf-text';
+import { testAuditAction } from '../../testing/test-audit-action';
 
 let h: ApiHarness;
 beforeAll(async () => {
@@ -96,7 +97,7 @@ describe('GET /api/audit/export?format=csv', () => {
   it('neutralises hostile cells, keeps numbers as numbers and round-trips through an RFC 4180 parser', async () => {
     const hostile = ['=HYPERLINK("http://x")', '@SUM(1)', '-2+3', '\t=1', 'plain, with "quotes"\r\nand a line break'];
     // An action of its own, so that events of earlier runs against the same database do not count.
-    const action = `test.hostile.${Array.from({ length: 10 }, () => String.fromCharCode(97 + Math.floor(Math.random() * 26))).join('')}`;
+    const action = testAuditAction(`test.hostile.${Array.from({ length: 10 }, () => String.fromCharCode(97 + Math.floor(Math.random() * 26))).join('')}`);
     for (const reason of hostile) await recordAuditAlone(h.handle.db, { action, entityType: 'test', entityId: 7, reason, after: { n: -5 } });
     // The quality officer sees the whole trail; an investigator's export holds their projects' events only.
     const investigator = await clientAs(h.app, 'quality');
@@ -154,7 +155,7 @@ describe('GET /api/audit/export?format=pdf', () => {
     expect(text).toContain('entityType=run');
     expect(text).toMatch(/VALID: every one of the \d+ events/);
     expect(text).toContain(`Page ${pages} of ${pages}`);
-    expect(text).toContain('Loaded a demo run'); // actions in words, not codes
+    expect(text.replace(/\s+/g, ' ')).toContain('Loaded the run with the demo lab'); // actions in words, not codes (wrapped in their column)
     expect((await lastEvent('audit.export')).after).toMatchObject({ format: 'pdf', filters: { entityType: 'run' }, sha256: fileHash });
   });
 });
@@ -201,7 +202,7 @@ describe('GET /api/runs/:id/report.pdf', () => {
     expect(text).toMatch(/The balance (closes|breaks)|Indeterminate/);
     expect(text).toMatch(/± \d/);
     expect(text).toContain('Ingrid Halvorsen'); // the signer
-    expect(text).toContain('Loaded a demo run'); // the audit excerpt, in words
+    expect(text.replace(/\s+/g, ' ')).toContain('Loaded the run with the demo lab'); // the audit excerpt, in words (wrapped in its column)
     expect(text).toMatch(/Approved: I (have reviewed|approve)/); // the signature line names the decision in words
     expect(text).toContain('local codes');
     expect(text).toContain(`Page ${pages} of ${pages}`);

@@ -1,8 +1,8 @@
-import { RUN_STATE_LABELS } from '../../contract/runs';
+import { REVIEW_DECISION_LABELS, RUN_STATE_LABELS } from '../../contract/runs';
 import type { SessionPerson } from '../core/session';
 import { drawPvDiagram } from './pv-diagram';
 import { COLOURS, ensureSpace, keyValues, newPdf, pdfText, pdfToFile, sectionTitle, stampPages, table, type Pdf } from './pdf-layout';
-import { actionLabel } from '../audit/audit-readable';
+import { auditActionLabel } from '../../contract/audit';
 import { storedWhy } from '../balance/balance-response';
 import { formatMeasurement, percent, sig, verdictWords } from './report-format';
 import type { RunReportData } from './run-report-data';
@@ -158,8 +158,8 @@ function flags(doc: Pdf, d: RunReportData): void {
 }
 
 // The report spells out what a returned run waits for.
-const STATE_WORDS: Record<string, string> = { ...RUN_STATE_LABELS, returned: 'Returned for correction' };
-const SIGNED_WORDS: Record<string, string> = { approve: 'Approved', return: 'Returned for correction', reject: 'Rejected' };
+const STATE_WORDS: Record<string, string> = { ...RUN_STATE_LABELS, returned: REVIEW_DECISION_LABELS.return };
+const SIGNED_WORDS: Readonly<Record<string, string>> = REVIEW_DECISION_LABELS;
 
 function signed(doc: Pdf, d: RunReportData): void {
   sectionTitle(doc, 'Signatures');
@@ -174,7 +174,7 @@ function signed(doc: Pdf, d: RunReportData): void {
 function history(doc: Pdf, d: RunReportData): void {
   sectionTitle(doc, 'Audit excerpt: the history of this run and its revisions');
   table(doc, [{ title: 'event', width: 38 }, { title: 'when (UTC)', width: 80 }, { title: 'who', width: 110 }, { title: 'action', width: 95 }, { title: 'run id', width: 36 }, { title: 'reason', width: 140 }],
-    d.history.map((e) => [String(e.id), e.occurredAt.toISOString().replace('T', ' ').slice(0, 19), e.actorName ?? e.actorEmail ?? 'Qwell (system)', actionLabel(e.action), e.entityId ?? '', e.reason ?? '']), 7.5);
+    d.history.map((e) => [String(e.id), e.occurredAt.toISOString().replace('T', ' ').slice(0, 19), e.actorName ?? e.actorEmail ?? 'Qwell (system)', auditActionLabel(e.action), e.entityId ?? '', e.reason ?? '']), 7.5);
 }
 
 /** The printable run report; returns its page count. */

@@ -6,6 +6,7 @@ import { createDb } from '../../db/client';
 import { auditEvents, readings, runs } from '../../db/schema';
 import { verifyAuditChain } from '../audit/audit-checkpoint';
 import { recordAuditAlone } from '../audit/audit-service';
+import { testAuditAction } from '../../testing/test-audit-action';
 import { startHarness, type ApiHarness } from '../../testing/api-harness';
 
 const root = join(__dirname, '..', '..');
@@ -19,7 +20,7 @@ afterAll(() => h.close());
 
 describe('tools/backup and tools/restore', () => {
   it('restore into a fresh database with the same rows and a valid audit chain', async () => {
-    await recordAuditAlone(h.handle.db, { action: 'test.before-backup', entityType: 'test' });
+    await recordAuditAlone(h.handle.db, { action: testAuditAction('test.before-backup'), entityType: 'test' });
     const source = new URL(process.env['DATABASE_URL']!).pathname.slice(1);
     const file = join(root, '.data', 'backups', `${source}-spec-${Date.now()}.dump`);
     const target = `${source}_restored_${Date.now()}`;

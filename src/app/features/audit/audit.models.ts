@@ -21,7 +21,7 @@ export interface AuditEvent {
   hash: string;
   /** The person's name; null for events the system wrote. */
   actorName: string | null;
-  /** What happened in plain words, e.g. "Submitted for review". */
+  /** What happened in plain words, e.g. "Submitted the run for review" (contract/audit.ts). */
   actionLabel: string;
   /** The record type as a word ("Run", "Instrument"). */
   recordType: string;

@@ -1,36 +1,14 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { RouterLink } from '@angular/router';
-import { VERDICT_LABELS } from '@contract';
+import { auditActionLabel, REVIEW_DECISION_LABELS, VERDICT_LABELS } from '@contract';
 
 import { RUN_STATE_LABELS } from '../runs.models';
 import { HistoryEvent, RunRevision, RunSignature } from '../run-detail.models';
 
-/** Audit actions in words people use. */
-const ACTION_LABELS: Readonly<Record<string, string>> = {
-  'run.create': 'Created the run',
-  'run.update': 'Edited the run',
-  'run.readings-replace': 'Replaced the readings',
-  'run.submit': 'Submitted the run for review',
-  'run.checked': 'Checked the energy balance',
-  'run.check-failed': 'Could not check the energy balance',
-  'run.approve': 'Approved the run with a signature',
-  'run.return': 'Returned the run for correction with a signature',
-  'run.reject': 'Rejected the run with a signature',
-  'run.revise': 'Opened a corrected revision',
-  'run.export': 'Downloaded the run document',
-  'run.report': 'Printed the run report',
-  'signature.refused': 'A signature was refused',
-  'seed.run': 'Loaded the run with the demo lab',
-};
-
 const VERDICT_WORDS: Readonly<Record<string, string>> = VERDICT_LABELS;
 
-const SIGNATURE_LABELS: Readonly<Record<string, string>> = {
-  approve: 'Approved',
-  return: 'Returned for correction',
-  reject: 'Rejected',
-};
+const SIGNATURE_LABELS: Readonly<Record<string, string>> = REVIEW_DECISION_LABELS;
 
 /** Signatures, revisions and the run's audit events. */
 @Component({
@@ -50,7 +28,8 @@ export class RunHistory {
 
   /** The event as a sentence: "Created the run (Draft)", "Checked the energy balance (Breaks)". */
   protected sentence(event: HistoryEvent): string {
-    const action = ACTION_LABELS[event.action] ?? event.action.replace(/^\w+\./, '').replace(/-/g, ' ');
+    // The audit trail's words for the action (the contract's table), so both screens read alike.
+    const action = auditActionLabel(event.action);
     const verdict = event.action === 'run.checked' ? VERDICT_WORDS[String(event.after?.['verdict'])] : undefined;
     const detail = verdict ?? this.change(event);
     return detail ? `${action} (${detail})` : action;
