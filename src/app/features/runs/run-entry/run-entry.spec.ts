@@ -98,7 +98,7 @@ describe('RunEntry page', () => {
     pressure.value = '9.5';
     pressure.dispatchEvent(new Event('input', { bubbles: true }));
     await harness.fixture.whenStable();
-    expect(root.querySelector('qw-safety-notices [role="alert"]')?.textContent).toContain('950 kPa is 95 % of the rated pressure');
+    expect(root.querySelector('qw-safety-notices [role="alert"]')?.textContent).toContain('950 kPa absolute is 95 % of the rated pressure');
   });
 
   it('saves the draft before submitting, then lists each problem the server found as a sentence', async () => {
@@ -113,7 +113,8 @@ describe('RunEntry page', () => {
     expect(put.request.body).toEqual({
       version: 1,
       time: { unit: 's', values: [0, 10] },
-      channels: { temperature: { unit: 'degC', values: [21.5, 23] } },
+      // Typed "21.5" and "23.0": one decimal, which the run page shows them back with.
+      channels: { temperature: { unit: 'degC', decimals: 1, values: [21.5, 23] } },
     });
     put.flush({ id: 12, version: 2, readings: 2 });
     await settle();

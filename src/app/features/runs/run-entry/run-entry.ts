@@ -159,6 +159,10 @@ export class RunEntry implements OnInit {
     const max = sheet.maxOf('pressure');
     return max === null ? null : toSi('pressure', this.value().channels.pressure.unit, max);
   });
+  protected readonly ambientPressurePa = computed(() => {
+    const v = this.value();
+    return v.ambientPressure === null ? null : toSi('pressure', v.ambientPressureUnit, v.ambientPressure);
+  });
   protected readonly title = computed(() => {
     const code = this.autosave.code();
     return this.id() || code ? `Edit run ${code ?? ''}`.trim() : 'New run';

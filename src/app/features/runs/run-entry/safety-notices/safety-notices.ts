@@ -5,6 +5,9 @@ import { MatIconModule } from '@angular/material/icon';
 /** Share of the rated pressure above which a reading is called out. */
 export const RATED_PRESSURE_WARNING = 0.9;
 
+/** Standard atmosphere in Pa (ISO 2533), the barometric pressure assumed until the run's own is entered. */
+const STANDARD_ATMOSPHERE_PA = 101_325;
+
 /**
  * The cautions a bench run needs: pressure (stay within the vessel's rating, with a warning once a
  * reading passes 90 % of it) and electrical heating (guard heaters and hot surfaces). They defer to
@@ -32,9 +35,12 @@ export const RATED_PRESSURE_WARNING = 0.9;
         <div class="notice warning" role="alert">
           <mat-icon aria-hidden="true">warning</mat-icon>
           <p>
-            <strong>Near the rating.</strong> A pressure reading of {{ over.kPa | number: '1.0-1' }} kPa is
-            {{ over.percent | number: '1.0-0' }} % of the rated pressure (above {{ warnPercent }} %). Check the reading, and
-            do not go higher without your lab's safety review.
+            <strong>Near the rating.</strong> A pressure reading of {{ over.kPa | number: '1.0-1' }} kPa {{ ratedReference() }} is
+            {{ over.percent | number: '1.0-0' }} % of the rated pressure (above {{ warnPercent }} %).
+            @if (over.assumedBarometer) {
+              Until the barometric pressure is entered, it is taken as {{ standardAtmosphereKPa }} kPa.
+            }
+            Check the reading, and do not go higher without your lab's safety review.
           </p>
         </div>
       }
@@ -103,17 +109,32 @@ export class SafetyNotices {
   readonly ratedPressurePa = input<number | null>(null);
   /** Whether the rating is absolute or gauge (above the barometric pressure). */
   readonly ratedReference = input<'absolute' | 'gauge'>('absolute');
-  /** Highest pressure reading in Pa, as entered (gauge or absolute); the stricter reading of a gauge rating. */
+  /** Highest pressure reading in Pa, as entered (gauge or absolute, as `pressureReference` says). */
   readonly highestPressurePa = input<number | null>(null);
+  /** Whether the pressure readings are absolute or gauge. */
+  readonly pressureReference = input<'absolute' | 'gauge'>('absolute');
+  /** The run's barometric pressure in Pa, when entered. */
+  readonly ambientPressurePa = input<number | null>(null);
 
   protected readonly warnPercent = RATED_PRESSURE_WARNING * 100;
+  protected readonly standardAtmosphereKPa = STANDARD_ATMOSPHERE_PA / 1000;
 
+  /**
+   * The highest reading read in the rating's own terms, as the balance check compares them: absolute
+   * pressure is the gauge reading plus the barometric pressure, and a gauge rating lies above it.
+   */
   protected readonly overLimit = computed(() => {
     const rated = this.ratedPressurePa();
-    const highest = this.highestPressurePa();
-    if (!rated || highest === null || highest <= RATED_PRESSURE_WARNING * rated) {
+    const entered = this.highestPressurePa();
+    if (!rated || entered === null) {
       return null;
     }
-    return { kPa: highest / 1000, percent: (highest / rated) * 100 };
+    const convert = this.pressureReference() !== this.ratedReference();
+    const barometer = this.ambientPressurePa() ?? STANDARD_ATMOSPHERE_PA;
+    const highest = !convert ? entered : this.ratedReference() === 'gauge' ? entered - barometer : entered + barometer;
+    if (highest <= RATED_PRESSURE_WARNING * rated) {
+      return null;
+    }
+    return { kPa: highest / 1000, percent: (highest / rated) * 100, assumedBarometer: convert && this.ambientPressurePa() === null };
   });
 }
