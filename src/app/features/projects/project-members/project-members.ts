@@ -1,11 +1,15 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatIconModule } from '@angular/material/icon';
-import { MatListModule, MatSelectionListChange } from '@angular/material/list';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
+import { MatListModule } from '@angular/material/list';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { map } from 'rxjs';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { DialogSave } from '../../../shared/forms/dialog-save';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { RoleLabelPipe } from '../../../shared/role-label-pipe';
 import { PeopleApi } from '../../people/people-api';
 import { PersonRecord } from '../../people/people.models';
@@ -15,56 +19,37 @@ import { Project } from '../projects.models';
 /** Dialog that picks a project's members from everyone in the lab; closes with the chosen ids. */
 @Component({
   selector: 'qw-project-members',
-  imports: [MatButtonModule, MatDialogModule, MatIconModule, MatListModule, MatProgressBarModule, RoleLabelPipe],
+  imports: [MatButtonModule, MatDialogModule, MatListModule, MatProgressBarModule, ProblemBanner, ReactiveFormsModule, RoleLabelPipe],
   templateUrl: './project-members.html',
   styleUrl: './project-members.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ProjectMembers {
   private readonly api = inject(ProjectsApi);
-  private readonly dialogRef = inject<MatDialogRef<ProjectMembers, number[]>>(MatDialogRef);
   protected readonly project = inject<Project>(MAT_DIALOG_DATA);
 
   protected readonly people = signal<PersonRecord[] | null>(null);
-  protected readonly chosen = signal<ReadonlySet<number>>(new Set(this.project.members.map((m) => m.id)));
-  protected readonly saving = signal(false);
-  protected readonly problem = signal<ProblemDetails | null>(null);
+  /** Why the lab's people could not be read (the save's own refusals are the save's). */
+  protected readonly loadProblem = signal<ProblemDetails | null>(null);
+  /** The chosen people's ids: the selection list's value. */
+  protected readonly members = new FormControl<number[]>(this.project.members.map((m) => m.id), { nonNullable: true });
+  protected readonly chosenCount = toSignal(this.members.valueChanges.pipe(map((ids) => ids.length)), {
+    initialValue: this.members.value.length,
+  });
+  /** A list has no place for a field message: the server's messages all show in the alert. */
+  protected readonly save = new DialogSave<number[]>(this.members);
 
   constructor() {
     inject(PeopleApi)
       .list()
       .subscribe({
         next: (list) => this.people.set(list.items),
-        error: (error: unknown) => this.problem.set(toProblem(error)),
+        error: (error: unknown) => this.loadProblem.set(toProblem(error)),
       });
   }
 
-  protected choose(change: MatSelectionListChange): void {
-    const next = new Set(this.chosen());
-    for (const option of change.options) {
-      const id = option.value as number;
-      if (option.selected) {
-        next.add(id);
-      } else {
-        next.delete(id);
-      }
-    }
-    this.chosen.set(next);
-  }
-
   protected saveMembers(): void {
-    if (this.saving()) {
-      return;
-    }
-    this.saving.set(true);
-    this.problem.set(null);
-    const ids = [...this.chosen()].sort((a, b) => a - b);
-    this.api.setMembers(this.project.id, ids).subscribe({
-      next: (result) => this.dialogRef.close(result.members),
-      error: (error: unknown) => {
-        this.saving.set(false);
-        this.problem.set(toProblem(error));
-      },
-    });
+    const ids = [...this.members.value].sort((a, b) => a - b);
+    this.save.submit(() => this.api.setMembers(this.project.id, ids).pipe(map((result) => result.members)));
   }
 }

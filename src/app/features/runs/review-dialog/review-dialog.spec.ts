@@ -156,6 +156,48 @@ describe('ReviewDialog', () => {
     expect(close).not.toHaveBeenCalled();
   });
 
+  it('shows the lockout (423) with its wait, clears the password and stays open', async () => {
+    await open('reject');
+    await (await password()).setValue('wrong-again');
+    await (await reason()).setValue('Readings copied from another run.');
+    await (await signButton()).click();
+
+    httpTesting.expectOne('/api/runs/7/reject').flush(
+      { title: 'Account locked', status: 423, detail: 'This account is locked after too many failed password attempts. Try again in 15 minutes.' },
+      { status: 423, statusText: 'Locked' },
+    );
+    await fixture.whenStable();
+
+    expect(fixture.nativeElement.querySelector('[role="alert"]')?.textContent).toContain('locked after too many failed password attempts. Try again in 15 minutes.');
+    expect(await (await password()).getValue()).toBe('');
+    expect(close).not.toHaveBeenCalled();
+  });
+
+  it("puts a 400's field messages beside their fields and the rest in the alert", async () => {
+    await open('return');
+    await (await password()).setValue('pa55word!');
+    await (await reason()).setValue('Units of the volume channel.');
+    await (await signButton()).click();
+
+    httpTesting.expectOne('/api/runs/7/return').flush(
+      {
+        title: 'Bad Request', status: 400, detail: 'The signature request has problems.',
+        errors: [{ field: 'reason', message: 'reason: say which reading is wrong.' }, { field: 'version', message: 'version must be a whole number.' }],
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await fixture.whenStable();
+
+    const reasonField = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: /Reason/ }));
+    expect(await reasonField.getTextErrors()).toEqual(['reason: say which reading is wrong.']);
+    const alert = fixture.nativeElement.querySelector('[role="alert"]')?.textContent ?? '';
+    expect(alert).toContain('The signature request has problems.');
+    expect(alert).toContain('version must be a whole number.');
+    expect(alert).not.toContain('say which reading is wrong');
+    // The password is kept: nothing said it was wrong.
+    expect(await (await password()).getValue()).toBe('pa55word!');
+  });
+
   it('tells the reviewer to reload when the run changed meanwhile (409)', async () => {
     await open('return');
     await (await password()).setValue('pa55word!');

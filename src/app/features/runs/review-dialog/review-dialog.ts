@@ -1,8 +1,8 @@
 import { DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -10,7 +10,11 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MIN_JUSTIFICATION, MIN_REVIEW_REASON, SIGNATURE_MEANINGS } from '@contract';
 
-import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { map } from 'rxjs';
+
+import { ProblemDetails } from '../../../core/http/problem-details';
+import { DialogSave } from '../../../shared/forms/dialog-save';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { WithUncertaintyPipe } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
 import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { RunsApi } from '../runs-api';
@@ -45,6 +49,7 @@ const ACTION_WORDS: Readonly<Record<ReviewAction, { title: string; button: strin
     MatInputModule,
     MatProgressBarModule,
     MatSelectModule,
+    ProblemBanner,
     ReactiveFormsModule,
     VerdictDisplay,
     WithUncertaintyPipe,
@@ -55,7 +60,6 @@ const ACTION_WORDS: Readonly<Record<ReviewAction, { title: string; button: strin
 })
 export class ReviewDialog {
   private readonly api = inject(RunsApi);
-  private readonly dialogRef = inject<MatDialogRef<ReviewDialog, ReviewAction>>(MatDialogRef);
   protected readonly data = inject<ReviewDialogData>(MAT_DIALOG_DATA);
 
   protected readonly words = ACTION_WORDS[this.data.action];
@@ -78,38 +82,26 @@ export class ReviewDialog {
     reason: ['', this.minReason > 0 ? [Validators.required, minTrimmed(this.minReason)] : []],
   });
 
-  protected readonly sending = signal(false);
-  protected readonly problem = signal<ProblemDetails | null>(null);
-  protected readonly fieldProblems = computed(() => this.problem()?.errors ?? []);
+  /** Closes with the decision once signed; a refusal stays open with the server's words. */
+  protected readonly save = new DialogSave<ReviewAction>(this.form, { refused: (problem) => this.refused(problem) });
 
   protected sign(): void {
-    if (this.form.invalid || this.sending()) {
-      this.form.markAllAsTouched();
-      return;
-    }
     const { password, meaning, reason } = this.form.getRawValue();
     const body: SignatureRequest = { version: this.data.version, password, meaning };
     if (reason.trim()) {
       body.reason = reason.trim();
     }
-    this.sending.set(true);
-    this.problem.set(null);
-    this.api.review(this.data.runId, this.data.action, body).subscribe({
-      next: () => this.dialogRef.close(this.data.action),
-      error: (error: unknown) => {
-        const problem = toProblem(error);
-        this.problem.set(
-          problem.status === 409
-            ? { ...problem, detail: `${problem.detail} Close this dialog and reload the run before you sign.` }
-            : problem,
-        );
-        this.sending.set(false);
-        // A refused password is never kept in the form.
-        if (problem.status === 401) {
-          this.form.controls.password.reset('');
-        }
-      },
-    });
+    this.save.submit(() => this.api.review(this.data.runId, this.data.action, body).pipe(map(() => this.data.action)));
+  }
+
+  private refused(problem: ProblemDetails): ProblemDetails {
+    // A refused password is never kept in the form: wrong (401), or the attempt that locked the account (423).
+    if (problem.status === 401 || problem.status === 423) {
+      this.form.controls.password.reset('');
+    }
+    return problem.status === 409
+      ? { ...problem, detail: `${problem.detail} Close this dialog and reload the run before you sign.` }
+      : problem;
   }
 }
 
