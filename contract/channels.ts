@@ -61,6 +61,19 @@ export const UNITS_BY_CHANNEL: Readonly<Record<ImportChannel, readonly string[]>
   power: ['W', 'mW'],
 };
 
+/** What an instrument of the register reads: a reading channel, or time (kept last: the db enum's order). */
+export const INSTRUMENT_KINDS = [...READING_CHANNELS, 'time'] as const;
+export type InstrumentKind = (typeof INSTRUMENT_KINDS)[number];
+
+/**
+ * The units an instrument may read in, per kind: its channel's units; a clock reads elapsed time, not
+ * date-times (the server checks a reading channel's unit against the engine's table).
+ */
+export const INSTRUMENT_UNITS: Readonly<Record<InstrumentKind, readonly string[]>> = {
+  ...UNITS_BY_CHANNEL,
+  time: UNITS_BY_CHANNEL.time.filter((unit) => unit !== 'iso'),
+};
+
 /** Whether a pressure was read against vacuum or against the room. */
 export const PRESSURE_REFERENCES = ['absolute', 'gauge'] as const;
 export type PressureReference = (typeof PRESSURE_REFERENCES)[number];

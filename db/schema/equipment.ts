@@ -1,6 +1,6 @@
 import { boolean, date, doublePrecision, index, integer, jsonb, pgEnum, pgTable, serial, text, timestamp } from 'drizzle-orm/pg-core';
 import { people } from './people';
-import { READING_CHANNELS } from '../../contract/channels';
+import { INSTRUMENT_KINDS } from '../../contract/channels';
 
 /** A gas the lab uses; `model` says how the engine gets its heat capacity. */
 export const gases = pgTable('gases', {
@@ -14,10 +14,8 @@ export const gases = pgTable('gases', {
   notes: text('notes').notNull().default(''),
 });
 
-/** What an instrument reads: one of the contract's reading channels, or time (kept last: the enum's order). */
-export const channelKinds = [...READING_CHANNELS, 'time'] as const;
-export type ChannelKind = (typeof channelKinds)[number];
-export const channelKindEnum = pgEnum('channel_kind', channelKinds);
+/** What an instrument reads: the contract's instrument kinds (reading channels, then time: the enum's order). */
+export const channelKindEnum = pgEnum('channel_kind', INSTRUMENT_KINDS);
 
 /** The manufacturer's specification of an instrument, in the unit of `unit`. */
 export interface InstrumentSpec {

@@ -1,7 +1,7 @@
 import { Type } from 'class-transformer';
 import { IsIn, IsNumber, IsObject, IsOptional, IsString, Length, Matches, Min, ValidateNested } from 'class-validator';
 import { IsCalendarDay, Trimmed } from '../core/validators';
-import { channelKinds, type ChannelKind } from '../../db/schema';
+import { INSTRUMENT_KINDS, type InstrumentKind } from '../../contract/channels';
 
 export class InstrumentSpecDto {
   @IsOptional() @IsNumber({}, { message: 'percentOfReading must be a number' }) @Min(0, { message: 'percentOfReading cannot be negative' })
@@ -24,8 +24,8 @@ export class CreateInstrumentDto {
   @Trimmed() @IsString() @Length(3, 200, { message: 'name must be 3 to 200 characters' })
   name!: string;
 
-  @IsIn(channelKinds, { message: `kind must be one of ${channelKinds.join(', ')}` })
-  kind!: ChannelKind;
+  @IsIn(INSTRUMENT_KINDS, { message: `kind must be one of ${INSTRUMENT_KINDS.join(', ')}` })
+  kind!: InstrumentKind;
 
   @IsString() @Length(1, 20, { message: 'unit is required (the unit the instrument reads in, e.g. kPa)' })
   unit!: string;

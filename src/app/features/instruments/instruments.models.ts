@@ -1,29 +1,6 @@
+import { InstrumentKind } from '@contract';
+
 import { CalibrationStatus } from '../../shared/calibration-status/calibration-status-chip';
-
-/** The quantity an instrument reads; matches the run document's channels. */
-export type InstrumentKind =
-  | 'pressure'
-  | 'volume'
-  | 'displacement'
-  | 'temperature'
-  | 'voltage'
-  | 'current'
-  | 'power'
-  | 'time';
-
-/** Units the engine converts, per kind; the instrument's unit must be one of its kind's. */
-export const UNITS_BY_KIND: Readonly<Record<InstrumentKind, readonly string[]>> = {
-  pressure: ['Pa', 'kPa', 'MPa', 'bar', 'mbar', 'atm', 'psi', 'torr', 'mmHg'],
-  volume: ['m3', 'L', 'mL', 'cm3'],
-  displacement: ['m', 'mm'],
-  temperature: ['K', 'degC', 'degF'],
-  voltage: ['V', 'mV'],
-  current: ['A', 'mA'],
-  power: ['W', 'mW'],
-  time: ['s', 'min', 'h'],
-};
-
-export const INSTRUMENT_KINDS = Object.keys(UNITS_BY_KIND) as InstrumentKind[];
 
 /** How the maker states the instrument's accuracy; any part may be missing. */
 export interface InstrumentSpec {

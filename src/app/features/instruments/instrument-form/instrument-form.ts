@@ -7,18 +7,12 @@ import { MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
+import { INSTRUMENT_KINDS, INSTRUMENT_UNITS, InstrumentKind } from '@contract';
 
 import { DialogSave } from '../../../shared/forms/dialog-save';
 import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { InstrumentsApi } from '../instruments-api';
-import {
-  INSTRUMENT_KINDS,
-  Instrument,
-  InstrumentKind,
-  InstrumentSpec,
-  NewInstrument,
-  UNITS_BY_KIND,
-} from '../instruments.models';
+import { Instrument, InstrumentSpec, NewInstrument } from '../instruments.models';
 
 /** The server's rule for tags: capitals, digits and dashes, starting with a capital or digit. */
 export const TAG_PATTERN = /^[A-Z0-9][A-Z0-9-]{0,31}$/;
@@ -73,7 +67,7 @@ export class InstrumentForm {
   private readonly kind = toSignal(this.form.controls.kind.valueChanges, {
     initialValue: this.form.controls.kind.value,
   });
-  protected readonly units = computed(() => UNITS_BY_KIND[this.kind()]);
+  protected readonly units = computed(() => INSTRUMENT_UNITS[this.kind()]);
   /** The range-order error belongs to the group; this shows it on the top-of-range field. */
   protected readonly rangeMatcher: ErrorStateMatcher = {
     isErrorState: (control) =>
@@ -85,7 +79,7 @@ export class InstrumentForm {
 
   /** A new kind keeps its unit only if the unit belongs to it. */
   protected chooseKind(kind: InstrumentKind): void {
-    const units = UNITS_BY_KIND[kind];
+    const units = INSTRUMENT_UNITS[kind];
     if (!units.includes(this.form.controls.unit.value)) {
       this.form.controls.unit.setValue(units[0]);
     }
