@@ -1,4 +1,5 @@
 import type { ChildProcess } from 'node:child_process';
+import { createServer } from 'node:net';
 import { spawnServer } from './spawn-server';
 
 export interface QwellProcess {
@@ -8,8 +9,24 @@ export interface QwellProcess {
   stop(signal?: NodeJS.Signals): Promise<void>;
 }
 
-/** Starts `server/main.ts` as its own OS process and waits until it says it is ready. */
+/** A loopback port nobody listens on now, so two test runs on one machine never ask for the same one. */
+export function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = createServer();
+    probe.once('error', reject);
+    probe.listen(0, '127.0.0.1', () => {
+      const { port } = probe.address() as { port: number };
+      probe.close(() => resolve(port));
+    });
+  });
+}
+
+/**
+ * Starts `server/main.ts` as its own OS process and waits until it says it is ready. A process that
+ * serves the API listens on `port`, or on a free port when none is given; a worker-only one listens nowhere.
+ */
 export async function startQwellProcess(env: Record<string, string>, port?: number): Promise<QwellProcess> {
+  if (port === undefined && env['QWELL_API'] !== '0') port = await freePort();
   const child = spawnServer(
     { ...process.env, LOG_LEVEL: 'warn', QWELL_MAIL_CATCHER: '0', SMTP_PORT: '1', ...(port ? { PORT: String(port) } : {}), ...env },
     ['ignore', 'pipe', 'pipe'],

@@ -75,7 +75,7 @@ async function main(): Promise<void> {
 
   let api: QwellProcess | undefined;
   try {
-    api = await startQwellProcess({ DATABASE_URL: url, QWELL_WORKER: '0', LOG_LEVEL: 'warn' }, Number(process.env['QWELL_BENCH_PORT'] ?? 3391));
+    api = await startQwellProcess({ DATABASE_URL: url, QWELL_WORKER: '0', LOG_LEVEL: 'warn' }, process.env['QWELL_BENCH_PORT'] ? Number(process.env['QWELL_BENCH_PORT']) : undefined);
     const pid = api.child.pid!;
     const client = new ApiClient(api.url);
     if ((await client.signIn(EMAIL, PASSWORD)).status !== 200) throw new Error('bench sign-in failed');

@@ -30,7 +30,7 @@ async function main(): Promise<void> {
   const rounds = Number(process.argv[2] ?? 5);
   let failures = 0;
   for (let round = 1; round <= rounds; round++) {
-    const api = await startQwellProcess({ DATABASE_URL: process.env['DATABASE_URL']!, QWELL_WORKER: '0' }, 3390);
+    const api = await startQwellProcess({ DATABASE_URL: process.env['DATABASE_URL']!, QWELL_WORKER: '0' });
     try {
       const before = await health(api.url);
       pg('down');

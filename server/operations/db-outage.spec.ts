@@ -48,7 +48,7 @@ beforeAll(async () => {
   const sql = postgres(url, { max: 1, onnotice: () => undefined });
   await sql`INSERT INTO people (email, name, role, password_hash) VALUES (${EMAIL}, 'Outage drill', 'technician', ${bcrypt.hashSync(PASSWORD, 4)})`;
   await sql.end();
-  api = await startQwellProcess({ DATABASE_URL: url, QWELL_WORKER: '0' }, 3395);
+  api = await startQwellProcess({ DATABASE_URL: url, QWELL_WORKER: '0' });
 }, 120_000);
 
 afterAll(async () => {

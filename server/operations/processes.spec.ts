@@ -45,8 +45,8 @@ const results = async (runId: number) => (await h.handle.db.select({ n: count() 
 
 describe('several processes on one database', () => {
   it('checks a run submitted through one API process in a separate worker, visible through the other', async () => {
-    const a = await start({ QWELL_WORKER: '0' }, 3401);
-    const b = await start({ QWELL_WORKER: '0' }, 3402);
+    const a = await start({ QWELL_WORKER: '0' });
+    const b = await start({ QWELL_WORKER: '0' });
     const worker = await start({ QWELL_API: '0', QWELL_MC_DRAWS: '2000' });
     const tech = await signedIn(a.url, 'technician');
     const runId = await submitFixture(tech, 'isochoric');
@@ -61,7 +61,7 @@ describe('several processes on one database', () => {
   });
 
   it('runs a check again after its worker is killed with SIGKILL mid-check, storing one result and a valid chain', async () => {
-    const api = await start({ QWELL_WORKER: '0' }, 3403);
+    const api = await start({ QWELL_WORKER: '0' });
     // Many Monte Carlo draws keep the check busy long enough to kill it in the middle.
     const slow = { QWELL_API: '0', QWELL_MC_DRAWS: '5000000', QWELL_JOB_EXPIRE_SECONDS: '4', QWELL_QUEUE_MAINTENANCE_SECONDS: '1' };
     const first = await start(slow);
@@ -82,7 +82,7 @@ describe('several processes on one database', () => {
   });
 
   it('leaves no partial run when the API process is killed with SIGKILL in the middle of an import commit', async () => {
-    const api = await start({ QWELL_WORKER: '0' }, 3405);
+    const api = await start({ QWELL_WORKER: '0' });
     const tech = await signedIn(api.url, 'technician');
     const N = 100_000;
     const lines = ['Time (s),P (kPa),T (degC)', ...Array.from({ length: N }, (_, i) => `${i},${(100 + i * 1e-4).toFixed(4)},25.00`)];
@@ -104,7 +104,7 @@ describe('several processes on one database', () => {
     } else {
       expect(after).toEqual(before);
       // After a restart the same import commits whole.
-      const again = await start({ QWELL_WORKER: '0' }, 3406);
+      const again = await start({ QWELL_WORKER: '0' });
       const client = await signedIn(again.url, 'technician');
       const res = await client.post(`/api/imports/${importId}/commit`, { mapping, target });
       expect(res.status).toBe(201);
