@@ -1,4 +1,5 @@
 import { IsInt, IsOptional, IsString, Length, MaxLength } from 'class-validator';
+import type { SignatureRequest } from '../../contract/api/runs';
 import { REVIEW_ACTIONS, SIGNATURE_MEANINGS, type ReviewAction } from '../../contract/runs';
 
 /** What a signature means, in the signer's own choice of words from the contract's fixed list. */
@@ -18,7 +19,7 @@ export class SignatureFields {
   reason?: string;
 }
 
-export class SignatureDto extends SignatureFields {
+export class SignatureDto extends SignatureFields implements SignatureRequest {
   @IsInt({ message: 'version must be the version of the run you reviewed (a whole number)' })
   version!: number;
 }

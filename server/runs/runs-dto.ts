@@ -1,4 +1,4 @@
-import { RUN_SORTS } from '../../contract/api/runs';
+import { RUN_SORTS, type CreateRunBody, type ReadingsBody, type UpdateRunBody } from '../../contract/api/runs';
 import { Type } from 'class-transformer';
 import { IsIn, IsInt, IsObject, IsOptional, IsString, Length, Max, Min } from 'class-validator';
 import { IsCalendarDay, IsOptionalNotNull, Trimmed } from '../core/validators';
@@ -53,7 +53,7 @@ export class RunListQuery {
 }
 
 
-export class CreateRunDto {
+export class CreateRunDto implements Omit<CreateRunBody, 'setup'> {
   @IsInt({ message: 'projectId must be the id of one of your projects' })
   projectId!: number;
 
@@ -76,7 +76,7 @@ export class CreateRunDto {
   setup?: RunSetup;
 }
 
-export class UpdateRunDto {
+export class UpdateRunDto implements Omit<UpdateRunBody, 'setup'> {
   @IsInt({ message: 'version must be the version of the run you are editing (a whole number)' })
   version!: number;
 
@@ -99,7 +99,7 @@ export class UpdateRunDto {
   setup?: RunSetup;
 }
 
-export class ReplaceReadingsDto {
+export class ReplaceReadingsDto implements Pick<ReadingsBody, 'version'> {
   @IsInt({ message: 'version must be the version of the run you are editing (a whole number)' })
   version!: number;
 
