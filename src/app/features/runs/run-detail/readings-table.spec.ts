@@ -53,6 +53,21 @@ describe('ReadingsTable', () => {
     expect(cells(setup)['voltage']).toEqual(['3', '3']);
   });
 
+  it('says the table scrolls sideways only while its columns are wider than the screen', async () => {
+    const { fixture, root } = await render();
+    expect(root.querySelector('.cue')).toBeNull();
+    // jsdom lays nothing out: give the table a phone's width and columns wider than it, as at 390 px.
+    const grid = root.querySelector<HTMLElement>('[role="table"]')!;
+    Object.defineProperty(grid, 'clientWidth', { configurable: true, value: 358 });
+    Object.defineProperty(grid, 'scrollWidth', { configurable: true, value: 620 });
+    fixture.componentRef.setInput('readings', { ...readings });
+    fixture.detectChanges();
+    await fixture.whenStable();
+    fixture.detectChanges();
+    expect(root.querySelector('.cue')?.textContent?.trim()).toBe('Swipe the table sideways for the other columns →');
+    expect(grid.classList).toContain('overflows');
+  });
+
   it('switches to SI units on request and back, saying which it shows', async () => {
     const { fixture, root, text } = await render();
     const toggle = root.querySelector<HTMLButtonElement>('button')!;

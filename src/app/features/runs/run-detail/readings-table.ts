@@ -1,5 +1,5 @@
 import { CdkVirtualScrollViewport, ScrollingModule } from '@angular/cdk/scrolling';
-import { ChangeDetectionStrategy, Component, computed, input, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, afterNextRender, afterRenderEffect, computed, inject, input, signal, viewChild } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 
 import { CHANNEL_LABELS } from '@contract';
@@ -45,7 +45,10 @@ function decimalsOf(text: string): number | null {
       </button>
       <span class="note">{{ siShown() ? 'Values in SI units, as the balance check reads them.' : 'Values in the units they were entered in.' }}</span>
     </div>
-    <div class="grid" role="table" [attr.aria-label]="(siShown() ? 'Readings in SI units, ' : 'Readings as entered, ') + readings().count + ' rows'" [attr.aria-rowcount]="readings().count + 1">
+    @if (overflows()) {
+      <p class="cue" aria-hidden="true">Swipe the table sideways for the other columns →</p>
+    }
+    <div #grid class="grid" [class.overflows]="overflows()" role="table" [attr.aria-label]="(siShown() ? 'Readings in SI units, ' : 'Readings as entered, ') + readings().count + ' rows'" [attr.aria-rowcount]="readings().count + 1">
       <div class="row head" role="row" [style.grid-template-columns]="template()">
         <span role="columnheader">#</span>
         @for (column of columns(); track column.key) {
@@ -78,6 +81,10 @@ function decimalsOf(text: string): number | null {
     .viewport { height: 20rem; min-width: fit-content; }
     .row { display: grid; gap: 0.5rem; align-items: center; height: 32px; padding: 0 0.75rem; font-variant-numeric: tabular-nums; white-space: nowrap; }
     .row > span { text-align: end; }
+    .cue { margin: 0 0 0.5rem; color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); }
+    /* While the table scrolls sideways the reading number stays in view, ruled off from the columns passing under it. */
+    .overflows .row > span:first-child { position: sticky; left: 0; z-index: 1; padding-right: 0.5rem; background: var(--mat-sys-surface); border-right: 1px solid var(--mat-sys-outline-variant); }
+    .overflows .marked > span:first-child { background: var(--mat-sys-secondary-container); }
     .head { font: var(--mat-sys-title-small); border-bottom: 1px solid var(--mat-sys-outline-variant); height: 40px; }
     .marked { background: var(--mat-sys-secondary-container); color: var(--mat-sys-on-secondary-container); outline: 2px solid var(--mat-sys-secondary); outline-offset: -2px; }
   `,
@@ -87,6 +94,9 @@ export class ReadingsTable {
   readonly readings = input.required<RunReadings>();
 
   private readonly viewport = viewChild.required(CdkVirtualScrollViewport);
+  private readonly grid = viewChild.required<ElementRef<HTMLElement>>('grid');
+  /** The columns are wider than the screen (a phone, or many channels): a line says the table scrolls sideways. */
+  protected readonly overflows = signal(false);
   protected readonly rowHeight = ROW_HEIGHT;
   /** The 1-based reading marked by the last "Show reading". */
   protected readonly marked = signal<number | null>(null);
@@ -99,6 +109,24 @@ export class ReadingsTable {
   protected readonly columns = computed(() => readingColumns(this.readings(), this.setup(), this.siShown()));
   protected readonly template = computed(() => `3.5rem repeat(${this.columns().length}, minmax(7.5rem, 1fr))`);
   protected readonly indexes = computed(() => Array.from({ length: this.readings().count }, (_, i) => i));
+
+  constructor() {
+    const destroyRef = inject(DestroyRef);
+    const measure = () => {
+      const grid = this.grid().nativeElement;
+      this.overflows.set(grid.scrollWidth > grid.clientWidth + 1);
+    };
+    // Measured after each render that may change the columns, and whenever the table's width changes.
+    afterRenderEffect({ read: () => { this.columns(); measure(); } });
+    afterNextRender(() => {
+      if (typeof ResizeObserver === 'undefined') {
+        return;
+      }
+      const observer = new ResizeObserver(measure);
+      observer.observe(this.grid().nativeElement);
+      destroyRef.onDestroy(() => observer.disconnect());
+    });
+  }
 
   /** Scrolls reading `n` (1-based) into the middle of the view and marks it. */
   showReading(n: number): void {
