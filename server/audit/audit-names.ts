@@ -64,9 +64,9 @@ export async function runIdsForCode(db: DbOrTx, code: string): Promise<number[]>
   return rows.map((r) => r.id);
 }
 
-/** Ids that a run's before/after name: the gas, apparatus and project, and each channel's instrument. */
+/** Ids that a before/after names: the gas, apparatus and project, each channel's instrument, and people (author, signer, members). */
 function referencedIds(events: readonly EventFields[]) {
-  const found = { gasId: [] as unknown[], apparatusId: [] as unknown[], projectId: [] as unknown[], instrumentId: [] as unknown[] };
+  const found = { gasId: [] as unknown[], apparatusId: [] as unknown[], projectId: [] as unknown[], instrumentId: [] as unknown[], personId: [] as unknown[] };
   for (const e of events) {
     for (const side of [e.before, e.after]) {
       if (!side || typeof side !== 'object') continue;
@@ -74,6 +74,7 @@ function referencedIds(events: readonly EventFields[]) {
       found.gasId.push(s['gasId']);
       found.apparatusId.push(s['apparatusId']);
       found.projectId.push(s['projectId']);
+      found.personId.push(s['authorId'], s['signerId'], ...(Array.isArray(s['members']) ? s['members'] : []));
       const channels = (s['setup'] as { channels?: Record<string, { instrumentId?: unknown }> } | undefined)?.channels;
       if (channels && typeof channels === 'object') for (const ch of Object.values(channels)) found.instrumentId.push(ch?.instrumentId);
     }
@@ -88,12 +89,15 @@ async function referenceNames(db: DbOrTx, events: readonly EventFields[]): Promi
   const apparatusIds = ids(found.apparatusId as (number | null)[]);
   const projectIds = ids(found.projectId as (number | null)[]);
   const instrumentIds = ids(found.instrumentId as (number | null)[]);
-  const [gasRows, apparatusRows, projectRows, instrumentRows] = await Promise.all([
+  const personIds = ids(found.personId as (number | null)[]);
+  const [gasRows, apparatusRows, projectRows, instrumentRows, personRows] = await Promise.all([
     gasIds.length ? db.select({ id: gases.id, code: gases.code }).from(gases).where(inArray(gases.id, gasIds)) : [],
     apparatusIds.length ? db.select({ id: apparatus.id, code: apparatus.tag }).from(apparatus).where(inArray(apparatus.id, apparatusIds)) : [],
     projectIds.length ? db.select({ id: projects.id, code: projects.code }).from(projects).where(inArray(projects.id, projectIds)) : [],
     instrumentIds.length ? db.select({ id: instruments.id, code: instruments.tag }).from(instruments).where(inArray(instruments.id, instrumentIds)) : [],
+    personIds.length ? db.select({ id: people.id, code: people.name }).from(people).where(inArray(people.id, personIds)) : [],
   ]);
   const map = (rows: { id: number; code: string }[]) => new Map(rows.map((r) => [r.id, r.code]));
-  return { gasId: map(gasRows), apparatusId: map(apparatusRows), projectId: map(projectRows), instrumentId: map(instrumentRows) };
+  const names = map(personRows);
+  return { gasId: map(gasRows), apparatusId: map(apparatusRows), projectId: map(projectRows), instrumentId: map(instrumentRows), authorId: names, signerId: names, members: names };
 }

@@ -39,6 +39,9 @@ describe('the audit trail in plain words', () => {
     expect(changesText(fieldChanges({ gasId: 3 }, { gasId: 5, setup: { channels: { pressure: { instrumentId: 7 } } } }, refs)))
       .toBe('Gas: N2 → CO2; Pressure channel instrument: PG-2');
     expect(changesText(fieldChanges({ gasId: 3 }, { gasId: 9 }, refs))).toBe('Gas: N2 → 9');
+    const people = new Map([[4, 'Lena Okonkwo'], [6, 'Mateo Brandt']]);
+    expect(changesText(fieldChanges({ members: [4], authorId: 4 }, { members: [4, 6], authorId: 6 }, { members: people, authorId: people })))
+      .toBe('Members: Lena Okonkwo → Lena Okonkwo, Mateo Brandt; Author: Lena Okonkwo → Mateo Brandt');
   });
 
   it('reads a list of problems as its messages, not as JSON', () => {

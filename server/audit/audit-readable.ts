@@ -123,7 +123,8 @@ export function fieldChanges(before: unknown, after: unknown, refs: ReferenceNam
     const is = a.get(path);
     if (JSON.stringify(was) === JSON.stringify(is)) continue;
     const names = refs[path] ?? refs[path.split('.').pop()!];
-    const text = (v: unknown) => names?.get(Number(v)) ?? valueText(path, v);
+    // A list of ids (a project's members) reads as their names, each one looked up.
+    const text = (v: unknown) => (names && Array.isArray(v) ? v.map((x) => names.get(Number(x)) ?? String(x)).join(', ') : names?.get(Number(v)) ?? valueText(path, v));
     changes.push({
       field: pathLabel(path),
       before: b.has(path) && before !== null && before !== undefined ? text(was) : null,

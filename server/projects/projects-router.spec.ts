@@ -1,5 +1,6 @@
 import { and, asc, eq } from 'drizzle-orm';
 import { auditEvents } from '../../db/schema';
+import { readableEvents } from '../audit/audit-names';
 import { demoEmail } from '../../db/seed/demo-lab';
 import { clientAs, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { makeThrowawayPerson } from '../../testing/throwaway-people';
@@ -104,6 +105,9 @@ describe('PUT /api/projects/:id/members', () => {
     expect(event.actorEmail).toBe(demoEmail('admin'));
     expect(event.before).toEqual({ members: [a.id] });
     expect(event.after).toEqual({ members: [b.id] });
+    // The trail reads the members by name, not by their ids.
+    const [readable] = await readableEvents(h.handle.db, [event]);
+    expect(readable.changes).toEqual([{ field: 'Members', before: 'Spec proj-a', after: 'Spec proj-b' }]);
   });
 
   it('answers 400 for an unknown person and changes nothing, 404 for an unknown project, 403 to a quality officer', async () => {
