@@ -5,6 +5,7 @@ import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 
 import { Auth } from '../../../core/auth/auth';
+import { Confirmation } from '../../../shared/confirmation/confirmation';
 import { ApparatusStandardization } from './apparatus-standardization';
 import { SeriesRun, StandardizationOverview } from './standardization.models';
 
@@ -68,5 +69,22 @@ describe('ApparatusStandardization', () => {
     const chart = (fixture.nativeElement as HTMLElement).querySelector('qw-control-chart canvas')!;
     expect(chart.getAttribute('aria-label')).toContain('centre 4905.2 J/K');
     expect(chart.getAttribute('aria-label')).toContain('6 earlier runs are shown as a previous segment');
+  });
+
+  it('signs the selected runs with the password and the fixed meaning, then confirms it visibly and reloads', async () => {
+    const shown = jest.spyOn(TestBed.inject(Confirmation), 'show');
+    const page = fixture.nativeElement as HTMLElement;
+    const password = page.querySelector<HTMLInputElement>('input[type=password]')!;
+    password.value = 'secret-pass';
+    password.dispatchEvent(new Event('input'));
+    fixture.detectChanges();
+    [...page.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent?.includes('Sign standardization'))!.click();
+    const req = httpTesting.expectOne({ method: 'POST', url: '/api/apparatus/3/standardizations' });
+    expect(req.request.body).toEqual({ runIds: [11, 12], password: 'secret-pass', meaning: 'I have reviewed these standardization runs and approve the energy equivalent' });
+    req.flush({ ...overview.current, id: 2, energyEquivalent: { value: 4905.2, u: 1.1 }, runIds: [11, 12] });
+    httpTesting.expectOne('/api/apparatus/3/standardizations').flush(overview);
+    await fixture.whenStable();
+    expect(shown).toHaveBeenCalledWith('Standardization signed: ε = 4905.2 J/K from 2 runs.');
+    expect(password.value).toBe('');
   });
 });

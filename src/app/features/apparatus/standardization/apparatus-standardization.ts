@@ -1,4 +1,3 @@
-import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
@@ -12,6 +11,7 @@ import { RouterLink } from '@angular/router';
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { Confirmation } from '../../../shared/confirmation/confirmation';
 import { WithUncertaintyPipe } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
 import { ControlChart } from './control-chart';
 import { StandardizationApi } from './standardization-api';
@@ -29,7 +29,7 @@ import { STANDARDIZATION_MEANINGS, StandardizationOverview } from './standardiza
 export class ApparatusStandardization {
   private readonly api = inject(StandardizationApi);
   private readonly auth = inject(Auth);
-  private readonly announcer = inject(LiveAnnouncer);
+  private readonly confirmation = inject(Confirmation);
   private readonly destroyRef = inject(DestroyRef);
 
   /** Route parameter. */
@@ -82,7 +82,7 @@ export class ApparatusStandardization {
       next: (s) => {
         this.busy.set(false);
         this.password.set('');
-        this.announcer.announce(`Standardization signed: ε = ${s.energyEquivalent.value.toFixed(1)} J/K from ${s.runIds.length} runs.`);
+        this.confirmation.show(`Standardization signed: ε = ${s.energyEquivalent.value.toFixed(1)} J/K from ${s.runIds.length} runs.`);
         this.load();
       },
       error: (e) => {
@@ -99,7 +99,7 @@ export class ApparatusStandardization {
       next: () => {
         this.busy.set(false);
         this.changeText.set('');
-        this.announcer.announce('Change recorded: a new standardization is due.');
+        this.confirmation.show('Change recorded: a new standardization is due.');
         this.load();
       },
       error: (e) => {
