@@ -28,20 +28,27 @@ describe('energy equivalent from a reference material', () => {
   });
 });
 
+/**
+ * Newton's-law record sampled every 5 s: 10 V × 2 A heater from 300 s to 600 s into C = 4000 J/K (invented demo
+ * numbers), each step the exact solution of dT/dt = P/C + k(Tc − T) over 5 s (common practice).
+ */
+function newtonRecord() {
+  const t: number[] = [], T: number[] = [], U: number[] = [], I: number[] = [];
+  const C = 4000, P = 20, k = 5e-4, Tc = 22.0;
+  let temp = 21.0;
+  for (let s = 0; s <= 1200; s += 5) {
+    t.push(s); T.push(temp);
+    const on = s >= 300 && s < 600;
+    U.push(on ? 10 : 0); I.push(on ? 2 : 0);
+    const Teq = Tc + (on ? P / (C * k) : 0);
+    temp = Teq + (temp - Teq) * Math.exp(-k * 5);
+  }
+  return { t, T, U, I };
+}
+
 describe('a standardization run document', () => {
   const doc = () => {
-    const t: number[] = [], T: number[] = [], U: number[] = [], I: number[] = [];
-    // Newton's-law record sampled every 5 s: 10 V × 2 A heater from 300 s to 600 s into C = 4000 J/K (invented demo numbers).
-    const C = 4000, P = 20, k = 5e-4, Tc = 22.0;
-    let temp = 21.0;
-    for (let s = 0; s <= 1200; s += 5) {
-      t.push(s); T.push(temp);
-      const on = s >= 300 && s < 600;
-      U.push(on ? 10 : 0); I.push(on ? 2 : 0);
-      // exact step of dT/dt = P/C + k(Tc − T) over 5 s
-      const Teq = Tc + (on ? P / (C * k) : 0);
-      temp = Teq + (temp - Teq) * Math.exp(-k * 5);
-    }
+    const { t, T, U, I } = newtonRecord();
     return {
       format: 'qwell.run', version: 1, runDate: '2026-03-02', purpose: 'standardization', heatSource: { kind: 'electrical' },
       process: { claimed: 'calorimetric' }, gas: { model: 'calorimeter' }, ambient: { temperature: { value: 22, unit: 'degC', u: 0.1 } },
@@ -79,19 +86,7 @@ describe('a standardization run document', () => {
 
 describe('the thermometer\'s gain in the energy-equivalent budget', () => {
   // The same Newton's-law standardization record as above, read by a thermometer with ± 0.05 % of reading.
-  const record = () => {
-    const t: number[] = [], T: number[] = [], U: number[] = [], I: number[] = [];
-    const C = 4000, P = 20, k = 5e-4, Tc = 22.0;
-    let temp = 21.0;
-    for (let s = 0; s <= 1200; s += 5) {
-      t.push(s); T.push(temp);
-      const on = s >= 300 && s < 600;
-      U.push(on ? 10 : 0); I.push(on ? 2 : 0);
-      const Teq = Tc + (on ? P / (C * k) : 0);
-      temp = Teq + (temp - Teq) * Math.exp(-k * 5);
-    }
-    return { t, T, U, I };
-  };
+  const record = newtonRecord;
   const docWith = (temperatures: number[], percentOfReading: number) => {
     const r = record();
     return {
