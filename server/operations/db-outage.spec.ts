@@ -5,14 +5,14 @@ import { join } from 'node:path';
 import bcrypt from 'bcryptjs';
 import postgres from 'postgres';
 import { ApiClient } from '../../testing/api-harness';
-import { startQwellProcess, type QwellProcess } from '../../testing/qwell-process';
+import { freePort, startQwellProcess, type QwellProcess } from '../../testing/qwell-process';
 
-// The database outage drill on a cluster of its own (another folder and port), so that stopping
-// PostgreSQL here never disturbs the shared test cluster. `npm run outage-check` runs the same
+// The database outage drill on a cluster of its own (another folder, and a port free when the spec
+// starts), so that stopping PostgreSQL here never disturbs the shared test cluster or another test run. `npm run outage-check` runs the same
 // drill against the shared cluster, for more rounds.
 const root = join(__dirname, '..', '..');
 const base = mkdtempSync(join(tmpdir(), 'qwell-outage-'));
-const pgEnv = { ...process.env, QWELL_PG_DIR: join(base, 'pg'), QWELL_PG_PORT: '54339', QWELL_PG_FAST: '1', QWELL_DB_NAME: 'qwell_outage' };
+const pgEnv: NodeJS.ProcessEnv = { ...process.env, QWELL_PG_DIR: join(base, 'pg'), QWELL_PG_FAST: '1', QWELL_DB_NAME: 'qwell_outage' };
 const pg = (...args: string[]) => execFileSync('bash', [join(root, 'tools', 'pg'), ...args], { env: pgEnv, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] }).trim();
 
 async function health(url: string): Promise<number | string> {
@@ -39,6 +39,7 @@ const PASSWORD = 'outage drill password';
 
 beforeAll(async () => {
   chmodSync(base, 0o755); // the cluster's unprivileged owner must reach its folder
+  pgEnv['QWELL_PG_PORT'] = String(await freePort());
   pg('up');
   const url = pg('url');
   execFileSync(join(root, 'node_modules/.bin/tsx'), ['--tsconfig', 'tsconfig.server.json', 'db/migrate.ts'], {
