@@ -153,6 +153,9 @@ export const mailOutbox = pgTable(
     sentAt: timestamp('sent_at', { withTimezone: true }),
     attempts: integer('attempts').notNull().default(0),
     lastError: text('last_error'),
+    // What the mail is about (e.g. one run version's verdict): a second mail with the same key to the
+    // same address is not queued, however many checks of that version run, in sequence or at once.
+    dedupeKey: text('dedupe_key'),
   },
-  (t) => [index('mail_outbox_unsent_idx').on(t.sentAt, t.id)],
+  (t) => [index('mail_outbox_unsent_idx').on(t.sentAt, t.id), uniqueIndex('mail_outbox_dedupe_idx').on(t.dedupeKey, t.recipient)],
 );

@@ -41,6 +41,7 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
       await queueMail(tx, [{
         to: author.email, subject: `Run ${locked.code}: the balance check could not run`,
         body: `The balance check could not read run ${locked.code} "${locked.title}", so it is back with you for correction:\n${problems.join('\n')}\nOpen the run: ${runLink(config.publicUrl, runId)}`,
+        dedupeKey: balanceMailKey(runId, version, 'unreadable'),
       }]);
       return 'invalid';
     }
@@ -64,17 +65,25 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
     if (result.verdict === 'breaks') {
       const investigators = await projectAddresses(tx, locked.projectId, 'investigator');
       const body = `Run ${locked.code} "${locked.title}" does not close its energy balance: En = ${result.En?.toFixed(2)} (> 1).\nr = ΔU − (Q − W) = ${result.residual.r.toPrecision(4)} J, U(r) = ${result.residual.U.toPrecision(2)} J (k = ${result.residual.k}).\nWhy: ${whySentence(result)}\nOpen the run to see the flags and hints: ${runLink(config.publicUrl, runId)}`;
-      await queueMail(tx, [...new Set([...investigators, author.email])].map((to) => ({ to, subject: `Run ${locked.code}: the energy balance breaks`, body })));
+      // Once per run version and verdict, to each address: a retried job, a second check of the same
+      // version or two checks at once queue no second mail (the outbox's unique key drops repeats).
+      const dedupeKey = balanceMailKey(runId, version, result.verdict);
+      await queueMail(tx, [...new Set([...investigators, author.email])].map((to) => ({ to, subject: `Run ${locked.code}: the energy balance breaks`, body, dedupeKey })));
     }
     const over = overPressureOf(result);
     if (over && !mailedBefore) {
       // A safety event, whatever the verdict: the project's investigators and every quality officer hear of it, once per run version.
       const to = new Set([...(await projectAddresses(tx, locked.projectId, 'investigator')), ...(await roleAddresses(tx, ['quality']))]);
       const mail = overPressureMail(locked, over, runLink(config.publicUrl, runId));
-      await queueMail(tx, [...to].map((address) => ({ to: address, ...mail })));
+      await queueMail(tx, [...to].map((address) => ({ to: address, ...mail, dedupeKey: balanceMailKey(runId, version, 'over-pressure') })));
     }
     return 'stored';
   });
+}
+
+/** The outbox key of a mail about one run version's check: one mail per run, version and finding. */
+export function balanceMailKey(runId: number, version: number, finding: string): string {
+  return `balance:${runId}:${version}:${finding}`;
 }
 
 /** Re-queues checks that a crash may have lost: submitted runs with no result for their version. */
