@@ -7,7 +7,7 @@ import { checkRunDocument } from '../engine';
 import { projectAddresses, queueMail, roleAddresses } from '../mail/outbox';
 import { loadRunDocument } from '../runs/run-loader';
 import type { RunSetup } from '../runs/run-setup';
-import { runStandardization } from '../standardizations/standardization-pin';
+import { runEnteredAt, runStandardization } from '../standardizations/standardization-pin';
 import { runLink } from '../mail/run-link';
 import { plainProblem } from '../runs/submit-checklist';
 import { overPressureMail, overPressureOf } from './over-pressure';
@@ -50,7 +50,7 @@ export async function runBalanceCheck(db: Database, config: Config, runId: numbe
     const [mailedBefore] = await tx.select({ id: balanceResults.id }).from(balanceResults)
       .where(and(eq(balanceResults.runId, runId), eq(balanceResults.runVersion, version), sql`${balanceResults.result}->'flags' @> '[{"code":"ABOVE_RATED_PRESSURE"}]'::jsonb`))
       .limit(1);
-    const pin = await runStandardization(tx, locked.apparatusId, locked.runDate, { useFittedHeatLoss: config.useFittedHeatLoss, setup: (locked.setup ?? {}) as RunSetup });
+    const pin = await runStandardization(tx, { apparatusId: locked.apparatusId, runDate: locked.runDate, enteredAt: await runEnteredAt(tx, locked.code) }, { useFittedHeatLoss: config.useFittedHeatLoss, setup: (locked.setup ?? {}) as RunSetup });
     const result = { ...checked.result, standardization: pin.standardization, flags: pin.flag ? [...checked.result.flags, pin.flag] : checked.result.flags };
     await tx.update(balanceResults).set({ current: false }).where(and(eq(balanceResults.runId, runId), eq(balanceResults.current, true)));
     const [stored] = await tx.insert(balanceResults).values({

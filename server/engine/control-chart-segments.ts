@@ -12,11 +12,14 @@ export interface SeriesChange {
   recordedAt?: string;
 }
 
-/** A point of the series; `at` is when the run was entered (ISO timestamp), for runs on the day of a change. */
+/**
+ * A point of the series; `at` is when the run was first entered (ISO timestamp; a revision keeps its first
+ * revision's), for runs on the day of a change. The balance check's STANDARDIZATION_DUE flag uses the same rule.
+ */
 export type SegmentPoint = SeriesPoint & { at?: string };
 
 /** Whether a run was made before a change: an earlier day, or the same day and entered before the change was recorded. */
-export function madeBefore(p: SegmentPoint, change: SeriesChange): boolean {
+export function madeBefore(p: Pick<SegmentPoint, 'date' | 'at'>, change: Pick<SeriesChange, 'date' | 'recordedAt'>): boolean {
   const day = p.date.slice(0, 10);
   if (day !== change.date) return day < change.date;
   return p.at !== undefined && change.recordedAt !== undefined && Date.parse(p.at) < Date.parse(change.recordedAt);

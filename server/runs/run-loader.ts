@@ -2,7 +2,7 @@ import { and, asc, desc, eq, inArray, lte } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
 import { apparatus, calibrations, gases, instruments, people, readings } from '../../db/schema';
 import type { RunDocument } from '../engine';
-import { standardizationInForce } from '../standardizations/standardization-pin';
+import { runEnteredAt, standardizationForRun } from '../standardizations/standardization-pin';
 import type { RunRow } from './run-access';
 import { storageToDocument, type DocumentContext, type ReadingRow } from './run-document-mapper';
 import type { RunSetup } from './run-setup';
@@ -41,7 +41,9 @@ export async function loadRunDocument(db: DbOrTx, run: RunRow, labName: string, 
     run.apparatusId ? db.select().from(apparatus).where(eq(apparatus.id, run.apparatusId)) : Promise.resolve([]),
     db.select({ name: people.name }).from(people).where(eq(people.id, run.authorId)),
   ]);
-  const std = run.apparatusId ? await standardizationInForce(db, run.apparatusId, run.runDate) : null;
+  const std = run.apparatusId
+    ? await standardizationForRun(db, { apparatusId: run.apparatusId, runDate: run.runDate, enteredAt: await runEnteredAt(db, run.code) })
+    : null;
   const standardization = std ? { ...std, applyHeatLoss: opts.useFittedHeatLoss === true } : null;
   return storageToDocument({
     run, rows, register, gasCode: gas?.code ?? null, apparatus: app ?? null, lab: labName, operator: author?.name ?? '', standardization,

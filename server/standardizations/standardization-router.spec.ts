@@ -101,7 +101,7 @@ describe('POST /api/apparatus/:id/standardizations', () => {
     expect(res.body).toMatchObject({ signedBy: 'Samir Castellanos', effectiveFrom: today(), runIds: accepted.map((s) => s.runId) });
     const audit = await h.handle.db.select().from(auditEvents).where(and(eq(auditEvents.action, 'signature.create'), eq(auditEvents.entityType, 'standardization'))).orderBy(desc(auditEvents.id)).limit(1);
     expect(audit[0].entityId).toBe(String(res.body.id));
-    const pin = await runStandardization(h.handle.db, bc1, today());
+    const pin = await runStandardization(h.handle.db, { apparatusId: bc1, runDate: today() });
     expect(pin.standardization?.id).toBe(res.body.id);
     expect(pin.flag).toBeNull();
   });
@@ -134,7 +134,7 @@ describe('POST /api/apparatus/:id/changes', () => {
     expect(overview.body.due).toEqual({ since: today(), description: 'immersion heater replaced after a repair' });
     const due = await (await clientAs(h.app, 'investigator')).get('/api/apparatus-due');
     expect(due.body.items.map((a: { id: number }) => a.id)).toContain(spare);
-    const pin = await runStandardization(h.handle.db, spare, today());
+    const pin = await runStandardization(h.handle.db, { apparatusId: spare, runDate: today() });
     expect(pin.flag?.code).toBe('STANDARDIZATION_DUE');
     expect(pin.flag?.message).toContain('immersion heater replaced after a repair');
     const audit = await h.handle.db.select().from(auditEvents).where(eq(auditEvents.action, 'apparatus.change')).orderBy(desc(auditEvents.id)).limit(1);

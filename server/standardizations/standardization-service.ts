@@ -42,7 +42,7 @@ export interface SegmentOut {
   current: boolean;
 }
 
-type RawRun = { id: number; code: string; run_date: string; created_at: string; state: string; ee: { value: number; u: number }; h: { value: number; u: number } | null; input_hash: string };
+type RawRun = { id: number; code: string; run_date: string; entered_at: string; state: string; ee: { value: number; u: number }; h: { value: number; u: number } | null; input_hash: string };
 
 const round = (x: number) => (Number.isFinite(x) ? x : null);
 
@@ -62,17 +62,19 @@ export class StandardizationService {
    */
   async series(db: DbOrTx, apparatusId: number): Promise<{ runs: SeriesRun[]; summary: SeriesSummary; segments: SegmentOut[] }> {
     const rows = [...await db.execute<RawRun>(sql`
-      SELECT r.id, r.code, r.run_date::text AS run_date, to_json(r.created_at) #>> '{}' AS created_at, r.state, b.result->'energyEquivalent' AS ee,
+      SELECT r.id, r.code, r.run_date::text AS run_date, to_json(e.entered_at) #>> '{}' AS entered_at, r.state, b.result->'energyEquivalent' AS ee,
              b.result->'heatLeakFit'->'h' AS h, b.input_hash
       FROM runs r JOIN balance_results b ON b.run_id = r.id AND b.current
+      -- When the run was first entered (runEnteredAt): a revision stays on the side of a same-day change its measurement was.
+      CROSS JOIN LATERAL (SELECT min(f.created_at) AS entered_at FROM runs f WHERE f.code = r.code) e
       WHERE r.apparatus_id = ${apparatusId} AND r.setup->>'purpose' = 'standardization'
         AND r.state IN ('submitted', 'approved')
         AND jsonb_typeof(b.result->'energyEquivalent') = 'object'
         AND NOT EXISTS (SELECT 1 FROM runs n WHERE n.previous_revision_id = r.id)
-      ORDER BY r.run_date, r.id`)];
+      ORDER BY r.run_date, e.entered_at, r.id`)];
     const changes = (await db.select({ date: apparatusChanges.changedOn, description: apparatusChanges.description, recordedAt: apparatusChanges.recordedAt }).from(apparatusChanges).where(eq(apparatusChanges.apparatusId, apparatusId)))
       .map((c) => ({ ...c, recordedAt: c.recordedAt.toISOString() }));
-    const segments = segmentByChanges(rows.map((r) => ({ date: r.run_date, at: r.created_at, value: r.ee.value })), changes, this.rule);
+    const segments = segmentByChanges(rows.map((r) => ({ date: r.run_date, at: r.entered_at, value: r.ee.value })), changes, this.rule);
     const runs = segments.flatMap((seg, index) => rows.slice(seg.start, seg.end).map((r, j) => {
       const b = seg.summary.breaks[j];
       return {
