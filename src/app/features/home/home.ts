@@ -7,6 +7,7 @@ import { RouterLink } from '@angular/router';
 
 import { Auth } from '../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../core/http/problem-details';
+import { ProblemBanner } from '../../shared/problem-banner/problem-banner';
 import { RoleLabelPipe } from '../../shared/role-label-pipe';
 import { StandardizationDue } from '../apparatus/standardization/standardization-due';
 import { HomeApi } from './home-api';
@@ -34,7 +35,7 @@ const QUEUE_ICONS: Readonly<Record<string, string>> = {
 
 @Component({
   selector: 'qw-home',
-  imports: [MatIconModule, MatProgressBarModule, RoleLabelPipe, RouterLink, StandardizationDue],
+  imports: [ProblemBanner, MatIconModule, MatProgressBarModule, RoleLabelPipe, RouterLink, StandardizationDue],
   templateUrl: './home.html',
   styleUrl: './home.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

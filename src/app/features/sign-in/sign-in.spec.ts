@@ -101,6 +101,10 @@ describe('SignIn', () => {
     await refuse(401, detail);
 
     expect(page().querySelector('[role="alert"]')?.textContent?.trim()).toContain(detail);
+    const banner = page().querySelector('qw-problem-banner [role="alert"]');
+    expect(banner?.querySelector('.problem-title')?.textContent?.trim()).toBe('Not signed in.');
+    expect(banner?.querySelector('.problem-detail')?.textContent?.trim()).toBe(detail);
+    expect(banner?.querySelector('mat-icon')?.textContent?.trim()).toBe('error');
     expect(TestBed.inject(Router).url).toContain('/sign-in');
   });
 
@@ -109,8 +113,8 @@ describe('SignIn', () => {
     await submit('technician@lab.test', 'wrong');
     await refuse(423, detail);
 
-    const alert = page().querySelector('[role="alert"]');
-    expect(alert?.textContent).toContain(detail);
+    const alert = page().querySelector('qw-problem-banner [role="alert"]');
+    expect(alert?.querySelector('.problem-detail')?.textContent?.trim()).toBe(detail);
     expect(alert?.querySelector('mat-icon')?.textContent?.trim()).toBe('lock');
   });
 

@@ -12,6 +12,7 @@ import { catchError, map, of } from 'rxjs';
 
 import { Auth } from '../../core/auth/auth';
 import { ProblemDetails } from '../../core/http/problem-details';
+import { ProblemBanner } from '../../shared/problem-banner/problem-banner';
 
 /** Only paths inside Qwell; anything else (another host, `//host`) goes home. */
 export function safeReturnUrl(url: string | undefined): string {
@@ -28,6 +29,7 @@ export function safeReturnUrl(url: string | undefined): string {
     MatIconModule,
     MatInputModule,
     MatProgressBarModule,
+    ProblemBanner,
     ReactiveFormsModule,
   ],
   templateUrl: './sign-in.html',

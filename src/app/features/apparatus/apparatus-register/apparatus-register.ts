@@ -11,6 +11,7 @@ import { RouterLink } from '@angular/router';
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { ApparatusForm } from '../apparatus-form/apparatus-form';
 import { ApparatusApi } from '../apparatus-api';
 import { cubicMetresToLitres, metresToMillimetres, pascalTo } from '../apparatus-units';
@@ -19,7 +20,7 @@ import { Apparatus } from '../apparatus.models';
 /** The apparatus register: vessels, piston cells and calorimeters with their thermal constants. */
 @Component({
   selector: 'qw-apparatus-register',
-  imports: [DecimalPipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, MatTableModule],
+  imports: [ProblemBanner, DecimalPipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, MatTableModule],
   templateUrl: './apparatus-register.html',
   styleUrl: './apparatus-register.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

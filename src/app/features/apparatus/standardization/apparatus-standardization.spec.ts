@@ -87,4 +87,26 @@ describe('ApparatusStandardization', () => {
     expect(shown).toHaveBeenCalledWith('Standardization signed: ε = 4905.2 J/K from 2 runs.');
     expect(password.value).toBe('');
   });
+
+  it('shows a refused signature in the shared problem banner, with the server\'s detail, and keeps the page', async () => {
+    const page = fixture.nativeElement as HTMLElement;
+    const password = page.querySelector<HTMLInputElement>('input[type=password]')!;
+    password.value = 'secret-pass';
+    password.dispatchEvent(new Event('input'));
+    fixture.detectChanges();
+    [...page.querySelectorAll<HTMLButtonElement>('button')].find((b) => b.textContent?.includes('Sign standardization'))!.click();
+    const detail = "The selected runs do not meet the lab's acceptance rule: 2 run(s); the lab's rule asks for at least 6.";
+    httpTesting.expectOne({ method: 'POST', url: '/api/apparatus/3/standardizations' }).flush(
+      { type: 'about:blank', title: 'Bad request', status: 400, detail, errors: [{ field: 'runIds', message: "2 run(s); the lab's rule asks for at least 6" }] },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await fixture.whenStable();
+    const banner = page.querySelector('qw-problem-banner [role="alert"]');
+    expect(banner?.querySelector('.problem-title')?.textContent?.trim()).toBe('Not saved.');
+    expect(banner?.querySelector('.problem-detail')?.textContent?.trim()).toBe(detail);
+    // The field message is already in the detail: said once
+    expect(banner?.querySelectorAll('.problem-fields li')).toHaveLength(0);
+    expect(page.querySelectorAll('[role="alert"]')).toHaveLength(1);
+    expect(text()).toContain('ε = 4851.7 ± 4.6 J/K');
+  });
 });

@@ -11,6 +11,7 @@ import { RouterLink } from '@angular/router';
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { Confirmation } from '../../../shared/confirmation/confirmation';
 import { WithUncertaintyPipe } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
 import { ControlChart } from './control-chart';
@@ -20,7 +21,7 @@ import { STANDARDIZATION_MEANINGS, StandardizationOverview } from './standardiza
 /** One apparatus: its standardization series on a control chart, the standardization in force, and its history. */
 @Component({
   selector: 'qw-apparatus-standardization',
-  imports: [DecimalPipe, RouterLink, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, ControlChart, WithUncertaintyPipe],
+  imports: [ProblemBanner, DecimalPipe, RouterLink, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, ControlChart, WithUncertaintyPipe],
   templateUrl: './apparatus-standardization.html',
   styleUrl: './apparatus-standardization.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

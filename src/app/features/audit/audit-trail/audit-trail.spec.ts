@@ -241,4 +241,21 @@ describe('AuditTrail', () => {
       'assertive',
     );
   });
+
+  it('shows a chain check that could not run in the shared problem banner, and announces it', async () => {
+    await harness.navigateByUrl('/audit');
+    expectList().flush(page);
+    await harness.fixture.whenStable();
+
+    button('Verify the chain').click();
+    const detail = 'Something went wrong on the server. Try again; if it keeps happening, tell your administrator.';
+    httpTesting.expectOne('/api/audit/verify').flush({ type: 'about:blank', title: 'Server error', status: 500, detail }, { status: 500, statusText: 'Internal Server Error' });
+    await harness.fixture.whenStable();
+
+    const banner = root().querySelector('qw-problem-banner [role="alert"]');
+    expect(banner?.querySelector('.problem-title')?.textContent?.trim()).toBe('The chain could not be checked.');
+    expect(banner?.querySelector('.problem-detail')?.textContent?.trim()).toBe(detail);
+    expect(Array.from(root().querySelectorAll('[role="alert"]')).filter((a) => !a.closest('qw-problem-banner'))).toEqual([]);
+    expect(announce).toHaveBeenCalledWith(`The chain could not be checked. ${detail}`, 'assertive');
+  });
 });

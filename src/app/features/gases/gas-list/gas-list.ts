@@ -1,18 +1,18 @@
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
-import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { GasesApi } from '../gases-api';
 import { GAS_MODEL_WORDS, Gas, GasModel } from '../gases.models';
 
 /** The gases runs can name, with how the engine finds each one's heat capacity. */
 @Component({
   selector: 'qw-gas-list',
-  imports: [DecimalPipe, MatIconModule, MatProgressBarModule, MatTableModule],
+  imports: [ProblemBanner, DecimalPipe, MatProgressBarModule, MatTableModule],
   templateUrl: './gas-list.html',
   styleUrl: './gas-list.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

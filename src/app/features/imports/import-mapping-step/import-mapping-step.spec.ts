@@ -99,4 +99,20 @@ describe('ImportMappingStep', () => {
     expect(mappings.at(-1)).toBeNull();
     expect(el.textContent).toContain('Choose at least one column of readings.');
   });
+
+  it('shows a refused row check in the shared problem banner, with the server\'s title, detail and field messages', async () => {
+    const { fixture, el } = await setUp();
+    Array.from(el.querySelectorAll('button')).find((b) => b.textContent?.includes('Check all rows'))!.click();
+    const detail = 'The upload this mapping belongs to has expired. Upload the file again.';
+    httpTesting.expectOne('/api/imports/12/check').flush(
+      { type: 'about:blank', title: 'Not found', status: 404, detail, errors: [{ field: 'mapping.columns', message: 'column 7 is not in the file' }] },
+      { status: 404, statusText: 'Not Found' },
+    );
+    await fixture.whenStable();
+    const banner = el.querySelector('qw-problem-banner [role="alert"]');
+    expect(banner?.querySelector('.problem-title')?.textContent?.trim()).toBe('Not found');
+    expect(banner?.querySelector('.problem-detail')?.textContent?.trim()).toBe(detail);
+    expect(Array.from(banner?.querySelectorAll('.problem-fields li') ?? []).map((li) => li.textContent?.trim())).toEqual(['column 7 is not in the file']);
+    expect(el.querySelectorAll('[role="alert"]')).toHaveLength(1);
+  });
 });

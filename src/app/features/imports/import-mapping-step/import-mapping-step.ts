@@ -10,6 +10,7 @@ import { unitSymbol } from '@contract';
 import { catchError, of } from 'rxjs';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { ColumnChoice, choicesFrom, mappingFrom, withChannel, withReference, withUnit } from '../import-mapping';
 import { ImportsApi } from '../imports-api';
 import {
@@ -29,7 +30,7 @@ import { Confirmation } from '../../../shared/confirmation/confirmation';
 /** Step 2: what each column holds and in which unit; the first rows, the summary and every row error. */
 @Component({
   selector: 'qw-import-mapping-step',
-  imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
+  imports: [ProblemBanner, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatSelectModule],
   templateUrl: './import-mapping-step.html',
   styleUrl: './import-mapping-step.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -165,6 +165,11 @@ describe('ImportPage', () => {
     );
     await fixture.whenStable();
     expect(el.querySelector('[role="alert"]')?.textContent).toContain('nothing was imported');
-    expect(el.querySelector('.row-errors')?.textContent?.trim()).toBe('Row 5, column "T/°C": text "warm" in a numeric column (temperature, degC)');
+    // One shared banner says it all: title, detail, and the rows inside the same alert
+    const banner = el.querySelector('qw-problem-banner [role="alert"]');
+    expect(banner?.querySelector('.problem-title')?.textContent?.trim()).toBe('Not imported.');
+    expect(banner?.querySelector('.problem-detail')?.textContent).toContain('Fix them in the file or change the mapping.');
+    expect(banner?.querySelector('.row-errors')?.textContent?.trim()).toBe('Row 5, column "T/°C": text "warm" in a numeric column (temperature, degC)');
+    expect(el.querySelectorAll('[role="alert"]')).toHaveLength(1);
   });
 });

@@ -13,6 +13,7 @@ import { Observable, catchError, forkJoin, map, of } from 'rxjs';
 import { RUN_PROCESSES } from '@contract';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { ImportMappingStep } from '../import-mapping-step/import-mapping-step';
 import { ImportUpload } from '../import-upload/import-upload';
 import { ApparatusApi } from '../../apparatus/apparatus-api';
@@ -40,7 +41,7 @@ function numberOf(text: string): number | null {
 /** Import a logger file: upload, map the columns, choose where the readings go, import all-or-nothing. */
 @Component({
   selector: 'qw-import-page',
-  imports: [ImportMappingStep, ImportUpload, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatRadioModule, MatSelectModule],
+  imports: [ProblemBanner, ImportMappingStep, ImportUpload, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatRadioModule, MatSelectModule],
   templateUrl: './import-page.html',
   styleUrl: './import-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -59,6 +59,11 @@ describe('ImportUpload', () => {
     );
     await fixture.whenStable();
     expect(el.querySelector('[role="alert"]')?.textContent).toContain('"report.pdf" is not a spreadsheet Qwell reads (it is a PDF document)');
+    // Said by the shared problem banner, under the page's words for what failed
+    const banner = el.querySelector('qw-problem-banner [role="alert"]');
+    expect(banner?.querySelector('.problem-title')?.textContent?.trim()).toBe('The file was not read.');
+    expect(banner?.querySelector('.problem-detail')?.textContent).toContain('Upload a .xlsx workbook or a .csv file exported from the logger.');
+    expect(el.querySelectorAll('[role="alert"]')).toHaveLength(1);
     expect(uploaded).toEqual([]);
   });
 

@@ -10,13 +10,14 @@ import { MatSelectModule } from '@angular/material/select';
 import { Subscription } from 'rxjs';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { ImportsApi } from '../imports-api';
 import { ImportPreview, UploadOptions } from '../imports.models';
 
 /** Step 1: choose or drop a logger file, say how a CSV is written, upload it with progress. */
 @Component({
   selector: 'qw-import-upload',
-  imports: [MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, MatSelectModule],
+  imports: [ProblemBanner, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, MatSelectModule],
   templateUrl: './import-upload.html',
   styleUrl: './import-upload.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -20,6 +20,7 @@ import { RouterLink } from '@angular/router';
 
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { CalibrationStatusChip } from '../../../shared/calibration-status/calibration-status-chip';
 import { CalibrationForm, CalibrationFormData } from '../calibration-form/calibration-form';
 import { InstrumentsApi } from '../instruments-api';
@@ -30,6 +31,7 @@ import { Confirmation } from '../../../shared/confirmation/confirmation';
 @Component({
   selector: 'qw-instrument-detail',
   imports: [
+    ProblemBanner,
     CalibrationStatusChip,
     DatePipe,
     DecimalPipe,

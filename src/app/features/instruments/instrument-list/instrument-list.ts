@@ -22,6 +22,7 @@ import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { Auth } from '../../../core/auth/auth';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import {
   CALIBRATION_LOOKS,
   CalibrationStatus,
@@ -37,6 +38,7 @@ const STATUSES = Object.keys(CALIBRATION_LOOKS) as CalibrationStatus[];
 @Component({
   selector: 'qw-instrument-list',
   imports: [
+    ProblemBanner,
     CalibrationStatusChip,
     DatePipe,
     DecimalPipe,

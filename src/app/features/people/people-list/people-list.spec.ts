@@ -110,6 +110,9 @@ describe('PeopleList', () => {
     await harness.fixture.whenStable();
 
     expect(root().querySelector('[role="alert"]')?.textContent).toContain('There is no person with id 1.');
+    const banner = root().querySelector('qw-problem-banner [role="alert"]');
+    expect(banner?.querySelector('.problem-title')?.textContent?.trim()).toBe('Not found');
+    expect(banner?.querySelector('.problem-detail')?.textContent?.trim()).toBe('There is no person with id 1.');
   });
 
   describe('adding a person', () => {

@@ -12,6 +12,7 @@ import { MatTableModule } from '@angular/material/table';
 import { Auth } from '../../../core/auth/auth';
 import { ROLES, ROLE_LABELS, Role } from '../../../core/auth/auth.models';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { RoleLabelPipe } from '../../../shared/role-label-pipe';
 import { PasswordReset } from '../password-reset/password-reset';
 import { PeopleApi } from '../people-api';
@@ -22,6 +23,7 @@ import { Confirmation } from '../../../shared/confirmation/confirmation';
 @Component({
   selector: 'qw-people-list',
   imports: [
+    ProblemBanner,
     DatePipe,
     MatButtonModule,
     MatIconModule,

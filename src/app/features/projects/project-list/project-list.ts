@@ -7,6 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { RoleLabelPipe } from '../../../shared/role-label-pipe';
 import { ProjectForm } from '../project-form/project-form';
 import { ProjectMembers } from '../project-members/project-members';
@@ -16,7 +17,7 @@ import { Project } from '../projects.models';
 /** Projects with their members; administrators start projects and choose who is in them. */
 @Component({
   selector: 'qw-project-list',
-  imports: [MatButtonModule, MatIconModule, MatProgressBarModule, RoleLabelPipe],
+  imports: [ProblemBanner, MatButtonModule, MatIconModule, MatProgressBarModule, RoleLabelPipe],
   templateUrl: './project-list.html',
   styleUrl: './project-list.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

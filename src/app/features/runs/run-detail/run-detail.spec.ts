@@ -221,6 +221,22 @@ describe('RunDetail', () => {
     expect(page().textContent).toContain('Run R-2026-0002 is being checked; its result appears here shortly.');
     expect(page().querySelector('qw-balance-card')).toBeNull();
     expect(buttons().some((text) => /Approve/.test(text))).toBe(false);
+    // Waiting for a result is not a failure: no problem banner
+    expect(page().querySelector('qw-problem-banner [role="alert"]')).toBeNull();
+  });
+
+  it('shows a balance that failed to load in the shared problem banner, beside the run it did load', async () => {
+    await openAs('investigator', 3);
+    httpTesting.expectOne('/api/runs/2').flush(run);
+    const detail = 'Something went wrong on the server. Try again; if it keeps happening, tell your administrator.';
+    httpTesting.expectOne('/api/runs/2/balance').flush({ title: 'Server error', status: 500, detail }, { status: 500, statusText: 'Internal Server Error' });
+    httpTesting.expectOne('/api/runs/2/history').flush({ items: [] });
+    await harness.fixture.whenStable();
+
+    const banner = page().querySelector('qw-problem-banner [role="alert"]');
+    expect(banner?.querySelector('.problem-title')?.textContent?.trim()).toBe('The balance result could not be loaded.');
+    expect(banner?.querySelector('.problem-detail')?.textContent?.trim()).toBe(detail);
+    expect(page().querySelector('h1')?.textContent).toContain('R-2026-0002');
   });
 
   it('asks again while the check runs, shows the verdict and its why without a reload, and announces it', async () => {

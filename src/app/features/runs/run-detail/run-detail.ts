@@ -10,6 +10,7 @@ import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { BehaviorSubject, Observable, catchError, combineLatest, map, of, switchMap } from 'rxjs';
 
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { BackoffPoll } from '../../../shared/polling/backoff-poll';
 import { VERDICT_LOOKS, VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
 import { ReviewDialog, ReviewDialogData } from '../review-dialog/review-dialog';
@@ -54,6 +55,7 @@ function attempt<T>(request: Observable<T>): Observable<Loaded<T>> {
 @Component({
   selector: 'qw-run-detail',
   imports: [
+    ProblemBanner,
     BalanceCard,
     BudgetTable,
     CalorimetryCard,

@@ -134,7 +134,8 @@ describe('RunEntry page', () => {
     );
     await settle();
 
-    const alert = root.querySelector('[role="alert"]');
+    const alert = root.querySelector('qw-problem-banner [role="alert"]');
+    expect(alert?.querySelector('.problem-title')?.textContent?.trim()).toBe('Not submitted.');
     expect(alert?.textContent).toContain('not complete enough to check');
     expect(Array.from(alert?.querySelectorAll('li') ?? []).map((li) => li.textContent?.trim())).toEqual([
       'The apparatus vessel volume is required for an isochoric run.',
@@ -169,8 +170,11 @@ describe('RunEntry page', () => {
       .flush({ title: 'Conflict', status: 409, detail, currentVersion: 3 }, { status: 409, statusText: 'Conflict' });
     await settle();
 
-    const banner = Array.from(root.querySelectorAll('[role="alert"]')).find((el) => el.textContent?.includes('Autosave stopped'));
-    expect(banner?.textContent).toContain(detail);
+    const banner = root.querySelector('qw-problem-banner [role="alert"]');
+    expect(banner?.querySelector('.problem-title')?.textContent?.trim()).toBe('Autosave stopped.');
+    expect(banner?.querySelector('.problem-detail')?.textContent?.trim()).toBe(detail);
+    expect(banner?.querySelector('mat-icon')?.textContent?.trim()).toBe('sync_problem');
+    expect(banner?.querySelector('button.problem-retry')?.textContent?.trim()).toBe('Reload the run');
     expect(root.querySelector<HTMLButtonElement>('button[type="submit"]')?.disabled).toBe(true);
     http.expectNone({ method: 'POST', url: '/api/runs/12/submit' });
 

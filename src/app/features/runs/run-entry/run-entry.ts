@@ -17,6 +17,7 @@ import { firstValueFrom, forkJoin, map, merge } from 'rxjs';
 
 import { HeadingFocus } from '../../../core/layout/heading-focus';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
+import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { ApparatusApi } from '../../apparatus/apparatus-api';
 import { Apparatus } from '../../apparatus/apparatus.models';
 import { GasesApi } from '../../gases/gases-api';
@@ -61,6 +62,7 @@ function today(): string {
   selector: 'qw-run-entry',
   imports: [
     RunChecklist,
+    ProblemBanner,
     DatePipe,
     InstrumentPicker,
     MatButtonModule,
@@ -229,7 +231,7 @@ export class RunEntry implements OnInit {
       if (!(await this.autosave.saveNow())) {
         const state = this.autosave.state();
         const detail = state.kind === 'failed' ? state.reason : state.kind === 'conflict' ? state.detail : 'The run could not be saved.';
-        this.submitProblem.set({ type: 'about:blank', title: 'Not saved', status: 0, detail: `Not submitted: ${detail}` });
+        this.submitProblem.set({ type: 'about:blank', title: 'Not saved', status: 0, detail: `The run could not be saved first: ${detail}` });
         return;
       }
       const id = this.autosave.runId()!;
@@ -249,7 +251,14 @@ export class RunEntry implements OnInit {
     }
   }
 
-  protected readonly sentence = problemSentence;
+  /** The submit's refusal, each field said as a sentence about the run. */
+  protected readonly submitMessages = computed(() => (this.submitProblem()?.errors ?? []).map((item) => problemSentence(item)));
+
+  /** Autosave's conflict, shown as a problem with the reload as its retry. */
+  protected readonly conflictProblem = computed<ProblemDetails | null>(() => {
+    const state = this.autosave.state();
+    return state.kind === 'conflict' ? { type: 'about:blank', title: 'Conflict', status: 409, detail: state.detail } : null;
+  });
 
   /** Tag of an instrument the run describes itself (imported runs), when no register instrument is chosen. */
   protected describedInstrument(name: ReadingChannel): string | null {
