@@ -7,6 +7,7 @@ export * from './channels';
 export * from './units';
 export * from './wire';
 export * from './audit';
+export * from './corrections';
 export * from './api/runs';
 export * from './api/result';
 export * from './api/home';

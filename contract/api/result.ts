@@ -1,3 +1,4 @@
+import type { AppliedCorrection } from '../corrections';
 import type { Verdict } from '../runs';
 import type { ValueU } from '../wire';
 
@@ -118,6 +119,11 @@ export interface BalanceResult extends CalorimetryResult {
   polytropicFit: { index: number; uIndex: number; rSquared: number; claimedIndex: number | 'infinite' | null } | null;
   flags: QualityFlag[];
   hints: DiagnosticHint[];
+  /**
+   * Certificate corrections the check applied to the readings (reading × gain + offset); empty when none.
+   * Absent in results stored before engine 2.3, which read every reading as entered.
+   */
+  corrections?: AppliedCorrection[];
 }
 
 /** `GET /api/runs/:id/balance`: the stored result, saying whether it still describes the run. */

@@ -1,4 +1,5 @@
 // The orchestrator: run document in, energy balance with its uncertainty, verdict, flags and hints out.
+import type { AppliedCorrection } from '../../contract/corrections';
 import { analyseCalorimetry, electricalHeat, type HeatLeakFit } from './calorimetry';
 import { sha256Canonical } from './canonical';
 import type { EnergyEquivalent } from './energy-equivalent';
@@ -80,6 +81,8 @@ export interface BalanceResult {
   heatLeakFit: HeatLeakFit | null;
   /** Standardization runs: ε = Q_known / ΔT_corrected, J/K. */
   energyEquivalent: EnergyEquivalent | null;
+  /** Certificate corrections applied to the readings before the check (reading × gain + offset, GUM 3.2.3); empty when none. */
+  corrections: AppliedCorrection[];
 }
 
 export type CheckResult = { ok: true; result: BalanceResult } | { ok: false; errors: ValidationError[] };
@@ -272,6 +275,7 @@ export function evaluateBalance(doc: RunDocument, settings: BalanceSettings = {}
     temperatureRise: calorimetry.temperatureRise,
     heatLeakFit: calorimetry.heatLeakFit,
     energyEquivalent: calorimetry.energyEquivalent,
+    corrections: series.corrections,
   };
 }
 

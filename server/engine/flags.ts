@@ -1,7 +1,9 @@
 // Data-quality flags: what is wrong, at which reading (1-based, as people count), and why it matters.
 import { quickselect } from 'simple-statistics';
+import { correctionFormula } from '../../contract/corrections';
+import { dayOf, statedCorrection } from './corrections';
 import { heaterFindings } from './heater-check';
-import type { RunDocument } from './run-document';
+import type { Instrument, RunDocument } from './run-document';
 import type { ChannelSeries, RunSeries } from './series';
 import { toSi } from './units';
 
@@ -152,8 +154,10 @@ function blockSpan(ch: ChannelSeries): { span: number; u: number; iLo: number; i
   return { span: hi - lo, u, iLo, iHi, mean: sum, m };
 }
 
-function dayOf(iso: string): number {
-  return Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso);
+/** The stated correction in words, with the unit it is stated in (the channel's when the document gives none). */
+function correctionOf(inst: Instrument, channelUnit: string): { gain: number; offset: number; unit: string } {
+  const c = inst.calibration!.correction!;
+  return { gain: c.gain ?? 1, offset: c.offset ?? 0, unit: c.unit ?? channelUnit };
 }
 
 export function dataQualityFlags(ctx: FlagContext): Flag[] {
@@ -200,10 +204,12 @@ export function dataQualityFlags(ctx: FlagContext): Flag[] {
         }
       }
     }
+    // A certificate not in force does not describe the instrument on the run date: its correction is not applied (corrections.ts).
+    const unapplied = statedCorrection(inst) ? ` Its certificate's correction (${correctionFormula(correctionOf(inst, ch.unit))}) is not applied.` : '';
     if (inst.dueDate && runDay > dayOf(inst.dueDate)) {
-      out.add('OUT_OF_CALIBRATION', null, `${inst.id} was due for calibration on ${inst.dueDate}, before the run date ${doc.runDate}; its certificate no longer covers these readings.`);
+      out.add('OUT_OF_CALIBRATION', null, `${inst.id} was due for calibration on ${inst.dueDate}, before the run date ${doc.runDate}; its certificate no longer covers these readings.${unapplied}`);
     } else if (inst.calibrationDate && runDay < dayOf(inst.calibrationDate)) {
-      out.add('OUT_OF_CALIBRATION', null, `${inst.id} was calibrated on ${inst.calibrationDate}, after the run date ${doc.runDate}; no certificate covers these readings.`);
+      out.add('OUT_OF_CALIBRATION', null, `${inst.id} was calibrated on ${inst.calibrationDate}, after the run date ${doc.runDate}; no certificate covers these readings.${unapplied}`);
     }
   }
 

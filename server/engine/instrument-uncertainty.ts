@@ -1,5 +1,6 @@
 // Splits an instrument specification into systematic parts (shared by every reading of the run) and a
 // random part (independent per reading), as GUM 4.3 Type B evaluations.
+import type { CertificateCorrection } from './corrections';
 
 export interface InstrumentSpec {
   /** ± % of reading: half-width of a rectangular distribution. */
@@ -11,8 +12,11 @@ export interface InstrumentSpec {
   resolution?: number;
   /** Standard deviation of repeated readings (Type A, known from the instrument's history), channel unit. */
   repeatability?: number;
-  /** Calibration certificate: expanded uncertainty U (channel unit) with its coverage factor k. */
-  calibration?: { U: number; k: number };
+  /**
+   * Calibration certificate: expanded uncertainty U (channel unit) with its coverage factor k, and the correction
+   * it states (reading × gain + offset), which the check applies to the readings (corrections.ts).
+   */
+  calibration?: { U: number; k: number; correction?: CertificateCorrection };
 }
 
 export interface UncertaintyComponents {

@@ -6,6 +6,7 @@ import { RUN_PROCESSES } from '../../contract/runs';
 import { SPECIES, type Species } from './gases';
 import type { InstrumentSpec } from './instrument-uncertainty';
 import { validateCalorimetryFields, type CalorimetryFields } from './run-document-calorimetry';
+import { validateCorrection, validateCorrectionUnits } from './run-document-corrections';
 import { isIsoDate, isUnit, unitsOf, type UnitKind } from './units';
 import type { ClaimedProcess } from './work';
 
@@ -207,6 +208,7 @@ export function validateRunDocument(input: unknown): ValidationResult {
     c.add('ambient.pressure.instrument', `names no entry of instruments: ${JSON.stringify(baro['instrument'])}`);
   }
   const channels = validateReadings(input['readings'], c, instrumentIds);
+  validateCorrectionUnits(input, (p, m) => c.add(p, m));
 
   validateCalorimetryFields(input, (p, m) => c.add(p, m), { channels, timeUnit: isObject(input['readings']) ? (input['readings'] as Record<string, unknown>)['time'] : undefined });
   // Cross-field rules: each says which fields disagree and what would fix it.
@@ -290,10 +292,11 @@ function validateInstruments(list: unknown, c: Collector): Set<string> {
     if (inst['percentOfFullScale'] !== undefined && inst['fullScale'] === undefined) c.add(`${p}.fullScale`, 'is required with percentOfFullScale');
     const cal = inst['calibration'];
     if (cal !== undefined) {
-      if (!isObject(cal)) c.add(`${p}.calibration`, 'must be an object { U, k }');
+      if (!isObject(cal)) c.add(`${p}.calibration`, 'must be an object { U, k, correction? }');
       else {
         c.number(cal, 'U', `${p}.calibration`, { required: true, min: 0 });
         c.number(cal, 'k', `${p}.calibration`, { required: true, positive: true });
+        if (cal['correction'] !== undefined) validateCorrection(cal['correction'], `${p}.calibration.correction`, (path, m) => c.add(path, m));
       }
     }
     const range = inst['range'];

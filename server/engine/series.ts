@@ -1,5 +1,7 @@
 // Turns a validated run document into SI series (Float64Array, one value per reading) and the
 // uncertainty components of the instrument behind each channel.
+import type { AppliedCorrection, CorrectedReading } from '../../contract/corrections';
+import { correctedValues, correctionFor } from './corrections';
 import { MOLAR_MASS_G } from './gases';
 import { components, type UncertaintyComponents } from './instrument-uncertainty';
 import type { Instrument, Quantity, RunDocument } from './run-document';
@@ -16,6 +18,10 @@ export interface ChannelSeries {
   instrument?: Instrument;
   /** Values as entered, in the channel's unit (ranges are stated in it). */
   raw: ArrayLike<number>;
+  /** Values as the check reads them: as entered, or corrected by the certificate in force (corrections.ts), channel unit. */
+  values: ArrayLike<number>;
+  /** The certificate's correction applied to `values`, when there is one. */
+  correction: AppliedCorrection | null;
   unit: string;
   si: Float64Array;
   /** ∂SI/∂(relative gain): the part of each SI value that scales with the reading (excludes °C/gauge offsets). */
@@ -53,6 +59,8 @@ export interface RunSeries {
   /** Uncertainty of a volume offset common to all readings (dead volume or fixed vessel volume), m³. */
   volumeOffsetU: number;
   amount: { kind: 'moles'; n: Scalar } | { kind: 'mass'; m: Scalar; M: Scalar } | { kind: 'initialState'; Z: Scalar } | { kind: 'none' };
+  /** Certificate corrections applied to the readings (channels in document order, then the barometric pressure). */
+  corrections: AppliedCorrection[];
 }
 
 const NO_UNCERTAINTY: UncertaintyComponents = { gain: 0, fullScaleOffset: 0, calibrationOffset: 0, random: 0, randomDistribution: 'normal' };
@@ -66,18 +74,21 @@ function instrumentOf(doc: RunDocument, id: string | undefined): Instrument | un
   return id === undefined ? undefined : doc.instruments?.find((i) => i.id === id);
 }
 
-function channel(doc: RunDocument, key: ChannelKey, kind: UnitKind, raw: number[], unit: string, instrumentId: string | undefined, offsetSi = 0): ChannelSeries {
+function channel(doc: RunDocument, key: ChannelKey, kind: UnitKind, raw: number[], unit: string, instrumentId: string | undefined, offsetSi = 0, reading: CorrectedReading = key): ChannelSeries {
   const { factor, offset } = affineToSi(kind, unit);
-  const n = raw.length;
+  const instrument = instrumentOf(doc, instrumentId);
+  // The certificate's correction, in the channel's unit, before the SI conversion (GUM 3.2.3); the entered values stay as they are.
+  const correction = correctionFor(instrument, reading, kind, unit, doc.runDate);
+  const values: ArrayLike<number> = correction ? correctedValues(raw, correction) : raw;
+  const n = values.length;
   const si = new Float64Array(n);
-  for (let i = 0; i < n; i++) si[i] = factor * raw[i] + offset + offsetSi;
+  for (let i = 0; i < n; i++) si[i] = factor * values[i] + offset + offsetSi;
   // Without an offset (°C, gauge) the gain basis is the SI series itself; sharing it saves 8 MB per 10⁶ readings.
   let gainBasis = si;
   if (offset !== 0 || offsetSi !== 0) {
     gainBasis = new Float64Array(n);
-    for (let i = 0; i < n; i++) gainBasis[i] = factor * raw[i];
+    for (let i = 0; i < n; i++) gainBasis[i] = factor * values[i];
   }
-  const instrument = instrumentOf(doc, instrumentId);
   const name = instrument ? (instrument.name ? `${instrument.id} ${instrument.name}` : instrument.id) : undefined;
   return {
     key,
@@ -85,6 +96,8 @@ function channel(doc: RunDocument, key: ChannelKey, kind: UnitKind, raw: number[
     group: instrument?.id ?? key,
     instrument,
     raw,
+    values,
+    correction: correction?.applied ?? null,
     unit,
     si,
     gainBasis,
@@ -98,17 +111,23 @@ function channel(doc: RunDocument, key: ChannelKey, kind: UnitKind, raw: number[
  * barometer's specification when an instrument of the register is named (GUM 5.1.2, one reading: its gain
  * times the reading, full-scale and calibration offsets and the per-reading part, root-sum-square).
  */
-function barometric(doc: RunDocument): Scalar | undefined {
+function barometric(doc: RunDocument): (Scalar & { correction?: AppliedCorrection }) | undefined {
   const q = doc.ambient?.pressure;
   if (!q) return undefined;
   const base = scalar(q, 'pressure')!;
   const inst = instrumentOf(doc, q.instrument);
   if (!inst) return base;
+  // The barometer's reading corrected by its certificate in force, as every other reading (GUM 3.2.3).
+  const correction = correctionFor(inst, 'ambientPressure', 'pressure', q.unit, doc.runDate);
+  const reading = correction ? q.value * correction.gain + correction.offset : q.value;
   const k = components(inst);
   const factor = differenceToSi('pressure', q.unit, 1);
-  const inUnit = Math.hypot(q.u ?? 0, k.gain * q.value, k.fullScaleOffset, k.calibrationOffset, k.random);
+  const inUnit = Math.hypot(q.u ?? 0, k.gain * reading, k.fullScaleOffset, k.calibrationOffset, k.random);
   const name = inst.name ? `${inst.id} ${inst.name}` : inst.id;
-  return { value: base.value, u: factor * inUnit, label: `barometric pressure (${name})`, group: inst.id };
+  return {
+    value: toSi('pressure', q.unit, reading), u: factor * inUnit, label: `barometric pressure (${name})`, group: inst.id,
+    ...(correction ? { correction: correction.applied } : {}),
+  };
 }
 
 export function buildSeries(doc: RunDocument): RunSeries {
@@ -138,10 +157,10 @@ export function buildSeries(doc: RunDocument): RunSeries {
     const area = pistonArea(bore.value);
     // Volume from displacement: a channel whose SI factor carries the piston area.
     const lengthFactor = affineToSi('length', r.displacement.unit).factor;
-    V = channel(doc, 'volume', 'length', r.displacement.values, r.displacement.unit, r.displacement.instrument, dead?.value ?? 0);
+    V = channel(doc, 'volume', 'length', r.displacement.values, r.displacement.unit, r.displacement.instrument, dead?.value ?? 0, 'displacement');
     if (V.gainBasis === V.si) V.gainBasis = new Float64Array(N);
     for (let i = 0; i < N; i++) {
-      V.gainBasis[i] = area * lengthFactor * r.displacement.values[i];
+      V.gainBasis[i] = area * lengthFactor * V.values[i];
       V.si[i] = V.gainBasis[i] + (dead?.value ?? 0);
     }
     V.factor = area * lengthFactor;
@@ -171,6 +190,9 @@ export function buildSeries(doc: RunDocument): RunSeries {
     } else amount = { kind: 'initialState', Z: { value: a.Z ?? 1, u: a.uZ ?? 0 } };
   }
 
+  const { correction: baroCorrection, ...ambientPressureScalar } = ambientPressure ?? {};
+  const corrections = [P, V, T, U, I, Pw].flatMap((c) => (c?.correction ? [c.correction] : []));
+  if (baroCorrection) corrections.push(baroCorrection);
   return {
     N,
     t,
@@ -181,7 +203,7 @@ export function buildSeries(doc: RunDocument): RunSeries {
     I,
     Pw,
     gauge,
-    ambientPressure,
+    ambientPressure: ambientPressure ? (ambientPressureScalar as Scalar) : undefined,
     ambientTemperature: scalar(doc.ambient?.temperature, 'temperature'),
     heatLoss: scalar(app.heatLossCoefficient, 'conductance'),
     wallUptake: scalar(app.wallUptake, 'energy'),
@@ -189,5 +211,6 @@ export function buildSeries(doc: RunDocument): RunSeries {
     boreGain,
     volumeOffsetU,
     amount,
+    corrections,
   };
 }

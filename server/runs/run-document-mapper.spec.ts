@@ -40,3 +40,28 @@ describe('readings typed in milliseconds (issue 12)', () => {
     expect(storageToDocument(ctx).readings.time).toEqual(ms.readings.time);
   });
 });
+
+describe('a register certificate\'s corrections in a stored run\'s document', () => {
+  const thermometer = (corrections: Record<string, number>) => ({
+    id: 9, tag: 'TC-9', name: 'Pt100 probe, bath calorimeter', kind: 'temperature', manufacturer: '', serialNumber: '', unit: 'degC', rangeMin: null, rangeMax: null, spec: { resolution: 0.001 },
+    calibration: { expandedUncertainty: 0.01, coverageFactor: 2, calibratedOn: '2025-12-01', dueOn: '2026-12-01', certificate: 'HIAT-CAL-2310', corrections },
+  }) as unknown as DocumentContext['register'] extends ReadonlyMap<number, infer V> ? V : never;
+  const documentWith = (corrections: Record<string, number>) => {
+    const doc = loadFixture('isochoric'); // temperature entered in °F
+    const { setup, rows } = documentToStorage(doc);
+    setup.channels!.temperature = { unit: 'degF', instrumentId: 9 };
+    const ctx = { run: { code: 'R-3', revision: 1, title: 't', runDate: doc.runDate, process: 'isochoric', setup }, rows, register: new Map([[9, thermometer(corrections)]]), gasCode: 'He', apparatus: null, lab: 'l', operator: 'o' } as unknown as DocumentContext;
+    return storageToDocument(ctx);
+  };
+
+  it('carry the certificate\'s gain and offset as stated, in the instrument\'s unit, beside U converted to the channel\'s', () => {
+    const tc = documentWith({ gain: 1.0004, offset: -0.05 }).instruments.find((i) => i.id === 'TC-9')!;
+    // U: 0.01 °C is 0.018 °F (a temperature difference of 1 °C is 1.8 °F, NIST SP 811 B.8); the correction stays in °C.
+    expect(tc.calibration!.U).toBeCloseTo(0.018, 12);
+    expect(tc.calibration!.correction).toEqual({ certificate: 'HIAT-CAL-2310', gain: 1.0004, offset: -0.05, unit: 'degC' });
+  });
+
+  it('add nothing to the document when the certificate states none (a demo run\'s document and hash stay as they were)', () => {
+    expect(documentWith({}).instruments.find((i) => i.id === 'TC-9')!.calibration).toEqual({ U: expect.any(Number), k: 2 });
+  });
+});

@@ -2,6 +2,7 @@ import type { RunTimeUnit } from '../../contract/api/runs';
 import type { InferSelectModel } from 'drizzle-orm';
 import type { apparatus as apparatusTable, calibrations, instruments, readings, runs } from '../../db/schema';
 import { RUN_FORMAT, RUN_FORMAT_VERSION, type Apparatus, type Instrument, type Readings, type RunDocument } from '../engine/run-document';
+import type { CertificateCorrection } from '../engine/corrections';
 import { differenceToSi, fromSi, toSi, type UnitKind } from '../engine/units';
 import { badRequest, type FieldError } from '../core/problem';
 import { columnOf, readingAt, readingsToSi, TIME_FACTORS, type ColumnsInput } from './readings-columns';
@@ -67,8 +68,18 @@ export function registerInstrument(inst: RegisterInstrument, channelUnit: string
     ...(spec.percentOfFullScale !== undefined ? { percentOfFullScale: spec.percentOfFullScale, fullScale: diff(spec.fullScale ?? 0) } : {}),
     ...(spec.resolution !== undefined ? { resolution: diff(spec.resolution) } : {}),
     ...(inst.rangeMin !== null && inst.rangeMax !== null ? { range: { min: point(inst.rangeMin), max: point(inst.rangeMax) } } : {}),
-    ...(cal ? { calibration: { U: diff(cal.expandedUncertainty), k: cal.coverageFactor }, calibrationDate: cal.calibratedOn, dueDate: cal.dueOn } : {}),
+    ...(cal ? { calibration: { U: diff(cal.expandedUncertainty), k: cal.coverageFactor, ...correctionOf(cal, inst.unit) }, calibrationDate: cal.calibratedOn, dueDate: cal.dueOn } : {}),
   };
+}
+
+/**
+ * The correction the certificate states, as it states it: in the instrument's unit, with the certificate's number
+ * (the engine applies it to the readings, corrections.ts). Nothing when the certificate states none.
+ */
+function correctionOf(cal: InferSelectModel<typeof calibrations>, unit: string): { correction?: CertificateCorrection } {
+  const { gain, offset } = cal.corrections ?? {};
+  if (gain === undefined && offset === undefined) return {};
+  return { correction: { certificate: cal.certificate, ...(gain !== undefined ? { gain } : {}), ...(offset !== undefined ? { offset } : {}), unit } };
 }
 
 export interface DocumentContext {

@@ -1,4 +1,5 @@
 import { SPECIES } from '../engine/gases';
+import { validateCorrection } from '../engine/run-document-corrections';
 import { isIsoDate, isUnit, toSi, type UnitKind } from '../engine/units';
 import { badRequest, type FieldError } from '../core/problem';
 import { CHANNELS, MAX_DECIMALS, channelNames, isDecimals } from './run-setup';
@@ -90,10 +91,11 @@ function checkInstruments(c: SetupCheck, list: unknown) {
       c.number(r['min'], `${f}.range.min`, { required: true });
       c.number(r['max'], `${f}.range.max`, { required: true });
     }
-    if (inst['calibration'] !== undefined && c.object(inst['calibration'], `${f}.calibration`, ['U', 'k'])) {
+    if (inst['calibration'] !== undefined && c.object(inst['calibration'], `${f}.calibration`, ['U', 'k', 'correction'])) {
       const cal = inst['calibration'] as Record<string, unknown>;
       c.number(cal['U'], `${f}.calibration.U`, { required: true, min: 0 });
       c.number(cal['k'], `${f}.calibration.k`, { required: true, min: 0 });
+      if (cal['correction'] !== undefined) validateCorrection(cal['correction'], `${f}.calibration.correction`, (field, message) => c.add(field, message));
     }
     for (const key of ['calibrationDate', 'dueDate']) if (inst[key] !== undefined && !isIsoDate(inst[key])) c.add(`${f}.${key}`, 'must be a date like 2026-03-14');
   });
