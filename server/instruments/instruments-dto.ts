@@ -1,5 +1,5 @@
 import { Type } from 'class-transformer';
-import { IsIn, IsNumber, IsObject, IsOptional, IsString, Length, Matches, Min, ValidateNested } from 'class-validator';
+import { IsIn, IsNumber, IsObject, IsOptional, IsPositive, IsString, Length, Matches, Min, ValidateNested } from 'class-validator';
 import { IsCalendarDay, Trimmed } from '../core/validators';
 import { INSTRUMENT_KINDS, type InstrumentKind } from '../../contract/channels';
 
@@ -47,6 +47,15 @@ export class CreateInstrumentDto {
 }
 
 
+/** The correction a certificate states, in the instrument's unit: the balance check reads each reading as reading × gain + offset. */
+export class CalibrationCorrectionsDto {
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'corrections.offset must be a number (in the instrument\'s unit)' })
+  offset?: number;
+
+  @IsOptional() @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'corrections.gain must be a number' }) @IsPositive({ message: 'corrections.gain must be greater than 0 (1 means no gain correction)' })
+  gain?: number;
+}
+
 export class CreateCalibrationDto {
   @IsCalendarDay({ message: 'calibratedOn must be a date like 2026-03-14' })
   calibratedOn!: string;
@@ -63,8 +72,8 @@ export class CreateCalibrationDto {
   @IsOptional() @IsNumber({}, { message: 'coverageFactor must be a number' }) @Min(1, { message: 'coverageFactor is at least 1' })
   coverageFactor?: number;
 
-  @IsOptional() @IsObject({ message: 'corrections must be { offset?, gain? }' })
-  corrections?: { offset?: number; gain?: number };
+  @IsOptional() @IsObject({ message: 'corrections must be { offset?, gain? }' }) @ValidateNested() @Type(() => CalibrationCorrectionsDto)
+  corrections?: CalibrationCorrectionsDto;
 
   @IsOptional() @IsString() @Length(0, 2000)
   notes?: string;

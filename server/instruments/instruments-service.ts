@@ -75,7 +75,7 @@ export class InstrumentsService {
       if (!instrument) throw notFound(`There is no instrument with id ${instrumentId}.`);
       const [row] = await tx.insert(calibrations).values({
         instrumentId, calibratedOn: body.calibratedOn, dueOn: body.dueOn, certificate: body.certificate, expandedUncertainty: body.expandedUncertainty,
-        coverageFactor: body.coverageFactor ?? 2, corrections: body.corrections ?? {}, notes: body.notes ?? '', createdBy: person.id,
+        coverageFactor: body.coverageFactor ?? 2, corrections: { ...(body.corrections ?? {}) }, notes: body.notes ?? '', createdBy: person.id,
       }).returning();
       await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'calibration.create', entityType: 'instrument', entityId: instrumentId, after: row, ip });
       return row;

@@ -82,6 +82,15 @@ describe('CalibrationForm', () => {
     httpTesting.expectNone('/api/instruments/5/calibrations');
   });
 
+  it('refuses a gain of 0 or less, which would erase or mirror the readings, and sends nothing', async () => {
+    fill('2026-11-20', '2027-11-20');
+    type('Correction gain (optional)', '0');
+    await submit();
+
+    expect(field('Correction gain (optional)').textContent).toContain('The gain is a number greater than 0 (1 for none).');
+    httpTesting.expectNone('/api/instruments/5/calibrations');
+  });
+
   it('posts the calibration with k = 2 by default and the corrections given, then closes', async () => {
     fill('2026-11-20', '2027-11-20');
     type('Correction offset (optional)', '-0.012');

@@ -52,7 +52,8 @@ export class CalibrationForm {
       expandedUncertainty: [null as number | null, [Validators.required, Validators.min(0)]],
       coverageFactor: [2 as number | null, [Validators.required, Validators.min(1)]],
       offset: [null as number | null],
-      gain: [null as number | null],
+      // A gain of 0 or less would erase or mirror the readings; the server refuses it too.
+      gain: [null as number | null, Validators.min(Number.MIN_VALUE)],
       notes: ['', Validators.maxLength(2000)],
     },
     { validators: dueAfterCalibrated },
