@@ -3,6 +3,7 @@ import type { SessionPerson } from '../core/session';
 import { drawPvDiagram } from './pv-diagram';
 import { COLOURS, ensureSpace, keyValues, newPdf, pdfText, pdfToFile, sectionTitle, stampPages, table, type Pdf } from './pdf-layout';
 import { auditActionLabel } from '../../contract/audit';
+import { correctionSentence } from '../../contract/corrections';
 import { storedWhy } from '../balance/balance-response';
 import { formatMeasurement, percent, sig, verdictWords } from './report-format';
 import type { RunReportData } from './run-report-data';
@@ -120,6 +121,8 @@ function balance(doc: Pdf, d: RunReportData): void {
     ['Heat', `electrical ${sig(b.heat.electrical, 5)} J, heat leak ${sig(b.heat.leak, 4)} J, wall uptake ${sig(b.heat.wall, 4)} J`],
     ['Model work', b.work.model === null ? b.work.modelFormula : `${sig(b.work.model, 5)} J (${b.work.modelFormula}); measured minus model ${sig(b.work.gap, 3)} J`],
     ['Internal energy', b.internalEnergy.method],
+    // Results stored before engine 2.3 have no list: their readings were read as entered.
+    ...(b.corrections ?? []).map((c): [string, string] => ['Readings corrected', `${correctionSentence(c)} The check read each reading as reading × gain + offset (GUM 3.2.3); the readings stored are as entered.`]),
     ['Monte Carlo', b.monteCarlo ? b.monteCarlo.note : 'not run'],
     ['Result', `engine ${b.engineVersion}, computed ${d.result.computedAt.toISOString()} for run version ${d.result.runVersion}; input SHA-256 ${b.inputHash}`],
   ];
@@ -133,6 +136,11 @@ function budget(doc: Pdf, d: RunReportData): void {
   if (entries.length === 0) {
     doc.font('Helvetica-Oblique').fontSize(9).fillColor(COLOURS.muted).text('No budget: the run has no balance result.');
     return;
+  }
+  if ((d.result?.value.corrections ?? []).length > 0) {
+    doc.font('Helvetica').fontSize(8).fillColor(COLOURS.muted)
+      .text(pdfText('The readings were corrected by their certificates before the check (see Readings corrected above); each certificate\'s U is the calibration row of its instrument.'), doc.page.margins.left);
+    doc.moveDown(0.3);
   }
   table(doc, [
     { title: 'source', width: 150 }, { title: 'kind', width: 52 }, { title: 'distribution', width: 55 },

@@ -3,6 +3,7 @@
 import type { RunRead } from '@contract';
 
 export type {
+  AppliedCorrection,
   BalanceResponse,
   BalanceResult,
   BalanceSummary,

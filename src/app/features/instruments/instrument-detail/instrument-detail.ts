@@ -18,6 +18,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 
+import { correctionFormula } from '@contract';
 import { Auth } from '../../../core/auth/auth';
 import { ProblemDetails, toProblem } from '../../../core/http/problem-details';
 import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
@@ -92,6 +93,11 @@ export class InstrumentDetail {
 
   protected hasCorrections(calibration: CalibrationRecord): boolean {
     return calibration.corrections.offset !== undefined || calibration.corrections.gain !== undefined;
+  }
+
+  /** The certificate's correction as the balance check applies it, e.g. "× 1.0004 − 0.05 °C". */
+  protected correction(calibration: CalibrationRecord, unit: string): string {
+    return correctionFormula({ gain: calibration.corrections.gain ?? 1, offset: calibration.corrections.offset ?? 0, unit });
   }
 
   private load(id: number): void {

@@ -124,7 +124,8 @@ describe('Instruments register', () => {
     const history = rows(harness).map((row) => row.textContent?.replace(/\s+/g, ' ').trim());
     expect(history[0]).toContain('CERT-8');
     expect(history[0]).toContain('0.8 kPa (k = 2)');
-    expect(history[0]).toContain('offset -0.2 kPa');
+    // The certificate's correction as the balance check applies it: reading × gain + offset (gain 1 left out).
+    expect(history[0]).toContain('reading − 0.2 kPa');
     expect(history[1]).toContain('CERT-5');
     expect(history[1]).toContain('Drift found');
     // Investigators read the register; only quality officers add calibrations.

@@ -44,3 +44,18 @@ describe('BalanceCard Monte Carlo section', () => {
     expect(root.textContent).toContain('1,000 draws');
   });
 });
+
+describe('BalanceCard certificate corrections', () => {
+  it('says in the lab\'s words and units which readings the check corrected, and by which certificate', () => {
+    const corrections = [{ reading: 'temperature', instrument: 'TC-9', instrumentName: 'Pt100 probe', certificate: 'HIAT-CAL-2310', gain: 1.0004, offset: -0.05, unit: 'degC' }];
+    const root = render({ ...base, monteCarlo, corrections });
+    const items = [...root.querySelectorAll('.corrections li')].map((li) => li.textContent?.trim());
+    expect(items).toEqual(['Temperature readings corrected by certificate HIAT-CAL-2310 of TC-9: × 1.0004 − 0.05 °C.']);
+    expect(root.querySelector('.corrections')?.textContent).toContain('reading × gain + offset');
+  });
+
+  it('shows nothing new for a run with no corrections, or a result stored before engine 2.3', () => {
+    expect(render({ ...base, monteCarlo, corrections: [] }).querySelector('.corrections')).toBeNull();
+    expect(render({ ...base, monteCarlo }).querySelector('.corrections')).toBeNull();
+  });
+});

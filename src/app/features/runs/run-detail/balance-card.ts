@@ -1,6 +1,7 @@
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
+import { correctionSentence } from '@contract';
 
 import { WithUncertaintyPipe, roundToUncertainty } from '../../../shared/value-with-uncertainty/value-with-uncertainty-pipe';
 import { VerdictDisplay } from '../../../shared/verdict-display/verdict-display';
@@ -59,6 +60,9 @@ export class BalanceCard {
       centre: at(side.value),
     }));
   });
+
+  /** One sentence per certificate correction the check applied (none for results before engine 2.3). */
+  protected readonly corrections = computed(() => (this.result().corrections ?? []).map(correctionSentence));
 
   protected readonly indeterminate = computed(() => this.result().verdict === 'indeterminate');
 
