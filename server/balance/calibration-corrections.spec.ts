@@ -4,6 +4,7 @@ import { checkRunDocument, ENGINE_VERSION, type RunDocument } from '../engine';
 import { clientAs, eventually, startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { loadFixture, runBodies } from '../../testing/fixture-runs';
 import { pdfTextRuns } from '../../testing/pdf-text';
+import { runOffThread } from '../core/off-thread';
 import { checkOffThread } from './check-off-thread';
 
 // A certificate in the register states a correction; a stored run's balance check applies it to the readings of the
@@ -119,6 +120,10 @@ describe('a stored run whose thermometer\'s certificate states a correction', ()
     const settings = { draws: 2000, seed: 3 };
     const inline = checkRunDocument(doc, settings);
     expect(await checkOffThread(doc, settings)).toEqual(inline);
+    // The worker that reads a large POST /api/balance body (from 512 kB) from its bytes: the same answer.
+    const fromBytes = await runOffThread(require.resolve('./balance-service'), 'checkDocumentBytes', [Buffer.from(JSON.stringify(doc)), settings]);
+    if (!inline.ok) throw new Error('exported document invalid');
+    expect(fromBytes).toEqual(inline.result);
   }, 60_000);
 
   it('says so in the printed report, in the lab\'s words and units', async () => {
