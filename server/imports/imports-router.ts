@@ -9,7 +9,7 @@ import { requireRole } from '../core/session';
 import { validateBody } from '../core/validate-body';
 import { importLimitsFromEnv, type ImportLimits } from './import-limits';
 import { tooLarge } from './import-problems';
-import { ColumnMapDto, parseCommitBody, parseUploadOptions } from './imports-dto';
+import { ColumnMapDto, parseCheckBody, parseCommitBody, parseUploadOptions } from './imports-dto';
 import { ImportsService } from './imports-service';
 
 /** multer in memory, with its errors turned into problems people can act on. */
@@ -56,8 +56,8 @@ export function importsRouter(db: Database, _config: Config, limits: ImportLimit
   });
 
   router.post('/:id/check', requireRole(...IMPORTERS), async (req, res) => {
-    const body = (req.body ?? {}) as Record<string, unknown>;
-    res.json(await service.check(req.person!, idParam(req.params['id'], 'import'), body['mapping']));
+    const id = idParam(req.params['id'], 'import');
+    res.json(await service.check(req.person!, id, parseCheckBody(req.body)));
   });
 
   router.post('/:id/commit', requireRole(...IMPORTERS), async (req, res) => {

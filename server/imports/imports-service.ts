@@ -13,7 +13,7 @@ import type { ImportLimits } from './import-limits';
 import { buildPreview, type ImportPreview } from './import-preview';
 import type { ColumnMapDto, CommitBody } from './imports-dto';
 import { parseMapping } from './imports-dto';
-import { checkMapping, checkRows } from './row-validation';
+import { checkMapping, checkRows, type ImportMapping } from './row-validation';
 import { buildTable, type ParsedTable } from './table-builder';
 import { readWorkbook } from './xlsx-off-thread';
 
@@ -97,8 +97,7 @@ export class ImportsService {
   }
 
   /** Checks every row against a mapping the person chose; stores nothing. */
-  async check(person: SessionPerson, id: number, mappingBody: unknown) {
-    const mapping = parseMapping(mappingBody);
+  async check(person: SessionPerson, id: number, mapping: ImportMapping) {
     const { imp } = await loadOwnImport(this.db, person, id);
     const table = imp.parsed as unknown as ParsedTable;
     checkMapping(table, mapping);

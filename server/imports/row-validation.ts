@@ -31,6 +31,12 @@ export interface RowCheck {
 
 export const ROW_ERROR_CAP = 500;
 
+/** A text sent by the client, quoted in a message: at most 40 characters of it. */
+export const shortText = (v: unknown) => {
+  const text = String(v);
+  return JSON.stringify(text.length > 40 ? `${text.slice(0, 40)}…` : text);
+};
+
 /** Refuses a mapping that cannot be applied at all (unknown column, unit, channel twice); says which part. */
 export function checkMapping(table: ParsedTable, mapping: ImportMapping): void {
   const errors: FieldError[] = [];
@@ -44,13 +50,13 @@ export function checkMapping(table: ParsedTable, mapping: ImportMapping): void {
     if (!inRange(c.index)) errors.push({ field: `${at}.index`, message: `column index ${c.index} is not in the file (0 to ${width - 1})` });
     else if (c.index === mapping.time.index) errors.push({ field: `${at}.index`, message: `column "${table.headers[c.index]}" is already the time column` });
     if (!channelNames.includes(c.channel)) {
-      errors.push({ field: `${at}.channel`, message: `"${c.channel}" is not a channel; channels are ${channelNames.join(', ')}` });
+      errors.push({ field: `${at}.channel`, message: `${shortText(c.channel)} is not a channel; channels are ${channelNames.join(', ')}` });
       return;
     }
     if (seen.has(c.channel)) errors.push({ field: `${at}.channel`, message: `${c.channel} is mapped to two columns; a run has one ${c.channel} channel` });
     seen.add(c.channel);
     if (!UNITS_BY_CHANNEL[c.channel].includes(c.unit)) {
-      errors.push({ field: `${at}.unit`, message: `"${c.unit}" is not a ${c.channel} unit; choose one of ${UNITS_BY_CHANNEL[c.channel].join(', ')}` });
+      errors.push({ field: `${at}.unit`, message: `${shortText(c.unit)} is not a ${c.channel} unit; choose one of ${UNITS_BY_CHANNEL[c.channel].join(', ')}` });
     }
     if (c.reference !== undefined && (c.channel !== 'pressure' || !(PRESSURE_REFERENCES as readonly string[]).includes(c.reference))) {
       errors.push({ field: `${at}.reference`, message: 'reference is "absolute" or "gauge", and only for pressure' });
