@@ -9,6 +9,7 @@ import { approvalMeanings, returnMeanings } from '../server/runs/review-dto';
 import { standardizationMeanings } from '../server/standardizations/standardization-dto';
 import { ApiClient, DEMO_PASSWORD } from './api-harness';
 import { loadFixture, runBodies } from './fixture-runs';
+import { FUZZ_IMPORT_HEADERS, fuzzImportCommit, fuzzImportMapping, makeFuzzImport } from './fuzz-imports';
 
 /**
  * Who sends a route's payloads: throwaway people made here for the run routes and for signing standardizations
@@ -25,6 +26,8 @@ export interface FuzzTarget {
   actor: Actor;
   /** A payload the route accepts; near-misses are made from it one change at a time. */
   valid: (ids: FuzzIds) => Record<string, unknown>;
+  /** Parameters made anew before each payload, for a route that acts once per record (an import commits once). */
+  renew?: (db: Database, ids: FuzzIds) => Promise<FuzzIds>;
 }
 
 export type FuzzIds = Record<string, number>;
@@ -52,10 +55,16 @@ export const fuzzTargets: FuzzTarget[] = [
   { method: 'PATCH', path: '/api/people/:person', actor: 'admin', valid: () => ({ name: 'Fuzz target renamed', role: 'assistant' }) },
   { method: 'POST', path: '/api/projects', actor: 'admin', valid: (ids) => ({ code: `FZN${ids[':project']}`, name: 'New fuzz project' }) },
   { method: 'PUT', path: '/api/projects/:project/members', actor: 'admin', valid: (ids) => ({ personIds: [ids[':technician'], ids[':investigator']] }) },
+  { method: 'POST', path: '/api/imports/column-maps', actor: 'fuzzTechnician', valid: (ids) => ({ name: `Fuzz logger ${ids[':project']}`, headers: FUZZ_IMPORT_HEADERS, mapping: fuzzImportMapping(ids[':instrument']) }) },
+  { method: 'POST', path: '/api/imports/:import/check', actor: 'fuzzTechnician', valid: (ids) => ({ mapping: fuzzImportMapping(ids[':instrument']) }) },
+  {
+    method: 'POST', path: '/api/imports/:import/commit', actor: 'fuzzTechnician', valid: fuzzImportCommit,
+    renew: async (db, ids) => ({ ':import': await makeFuzzImport(db, ids[':technician']) }),
+  },
 ];
 
 // Tables whose rows a refused request must leave alone (the audit trail and mail outbox may record refusals).
-const counted = ['runs', 'readings', 'people', 'projects', 'project_members', 'instruments', 'calibrations', 'apparatus', 'balance_results', 'signatures', 'uploads', 'imports', 'standardizations', 'apparatus_changes'];
+const counted = ['runs', 'readings', 'people', 'projects', 'project_members', 'instruments', 'calibrations', 'apparatus', 'balance_results', 'signatures', 'uploads', 'imports', 'standardizations', 'apparatus_changes', 'column_maps'];
 
 /** Six standardization runs over three days on the fuzz apparatus (ASTM D240 §8.1), so a valid signing payload is accepted. */
 const STANDARDIZATION_RUN_KEYS = [':std1', ':std2', ':std3', ':std4', ':std5', ':std6'];
@@ -69,7 +78,7 @@ export async function rowCounts(db: Database): Promise<Record<string, number>> {
   return out;
 }
 
-const fieldNames = ['version', 'title', 'process', 'runDate', 'projectId', 'time', 'channels', 'password', 'meaning', 'reason', 'tag', 'name', 'kind', 'unit', 'email', 'role', 'personIds', 'calibratedOn', 'dueOn', 'certificate', 'expandedUncertainty', 'setup', 'format', 'readings', 'gas', '__proto__', 'constructor'];
+const fieldNames = ['version', 'title', 'process', 'runDate', 'projectId', 'time', 'channels', 'password', 'meaning', 'reason', 'tag', 'name', 'kind', 'unit', 'email', 'role', 'personIds', 'calibratedOn', 'dueOn', 'certificate', 'expandedUncertainty', 'setup', 'format', 'readings', 'gas', 'mapping', 'target', 'newRun', 'headers', 'columns', 'index', 'runId', '__proto__', 'constructor'];
 
 /** Values that break a field: wrong types, edges of numbers, empty, huge and odd text. */
 const oddValue = fc.oneof(
@@ -171,6 +180,7 @@ export async function fuzzParams(db: Database): Promise<FuzzIds> {
   }
   return {
     ...standardizationRuns,
+    ':import': await makeFuzzImport(db, technician),
     ':quality': quality,
     ':draft': await run('draft'), ':submitted': await run('submitted'), ':approved': await run('approved'),
     ':instrument': inst.id, ':apparatus': app.id, ':person': target, ':project': project.id,
@@ -199,6 +209,11 @@ export async function fuzzClients(app: Express, db: Database, ids: FuzzIds): Pro
 /** A target's URL with its parameters filled in. */
 export const fuzzUrl = (target: FuzzTarget, ids: FuzzIds) => target.path.replace(/:[a-z]+/g, (p) => String(ids[p]));
 
+/** The URL for the next payload: with fresh records first when the target renews them. */
+export async function nextFuzzUrl(db: Database, target: FuzzTarget, ids: FuzzIds): Promise<string> {
+  return fuzzUrl(target, target.renew ? { ...ids, ...(await target.renew(db, ids)) } : ids);
+}
+
 /** A body sent as this exact text (deep nesting, "__proto__" keys: what JSON.stringify of an object cannot write). */
 export interface RawBody {
   raw: string;
@@ -222,13 +237,16 @@ function setAt(value: unknown, path: Array<string | number>, replacement: unknow
 
 const CONTROL_CHARS = ['\u0000', '\u0001', '\u0007', '\u0008', '\u000b', '\u001b', '\u007f', '\u0085', '\u009b'];
 const OVERFLOW_NUMBERS = [1e306, -1e306, 1e308, -1.7976931348623157e308, 2 ** 31, -(2 ** 31) - 1, 2 ** 53 + 2, 5e-324, 1e-320];
+/** Text lengths past any field's limit: 64 KiB, 1 MB and 8 MB (the JSON body limit is 20 MB). */
+const HUGE_LENGTHS = [65_536, 1_000_000, 8_000_000];
 const WRONG_NESTED = [5, -1, 'text', '', true, null, [], [[]], {}, { instruments: 5 }, [1, 'two', null], { unit: 5, values: 'many' }];
 
 /**
  * The hostile families of issue 16, each built from a route's valid payload so that it gets past the
  * role gate and the first checks: a control character in a string anywhere, nesting from 33 to 10 000
  * deep, numbers that overflow once converted to SI or do not fit an id column, wrong types deep inside
- * nested objects (setup, channels), and prototype keys written into the JSON text.
+ * nested objects (setup, channels), prototype keys written into the JSON text, and huge text in
+ * place of any value.
  */
 export function hostileFamilies(template: Record<string, unknown>): Record<string, fc.Arbitrary<unknown>> {
   const paths = pathsOf(template);
@@ -255,6 +273,7 @@ export function hostileFamilies(template: Record<string, unknown>): Record<strin
     'prototype key': fc.tuple(fc.constantFrom('__proto__', 'constructor', 'prototype'), fc.boolean()).map(([key, nested]): RawBody => ({
       raw: nested && /":\{/.test(text) ? text.replace(/":\{/, `":{"${key}":{"polluted":true},`) : text.replace(/^\{/, `{"${key}":{"polluted":true},`),
     })),
+    'huge string': fc.tuple(path, fc.constantFrom(...HUGE_LENGTHS), fc.constantFrom('x', 'é', '7')).map(([p, n, c]) => setAt(template, p, c.repeat(n))),
   };
 }
 

@@ -1,13 +1,20 @@
 // The large fuzz run (issue: ≥ 10 000 cases): random JSON, and near-valid payloads (a route's valid
 // payload with one field changed, dropped or added), against every write route on
 // a fresh database; then the hostile families (control characters, deep nesting, overflow after SI,
-// wrong nested types, prototype keys), a tenth as many again, sent in parallel (QWELL_FUZZ_PARALLEL, default 8). Run with `npm run fuzz [-- CASES]`; prints failures and a summary; exit 1 on any.
+// wrong nested types, prototype keys), a tenth as many again, sent in parallel (QWELL_FUZZ_PARALLEL, default 8);
+// then each route's valid payload sent QWELL_FUZZ_PARALLEL times at once. QWELL_FUZZ_ROUTES=TEXT keeps
+// only the routes whose "METHOD /path" contains TEXT (CASES are then spread over those). Run with
+// `npm run fuzz [-- CASES]`; prints failures and a summary; exit 1 on any.
 import 'reflect-metadata';
 import fc from 'fast-check';
-import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, hostileFamilies, payloadsFor, sendOnce, type FuzzFailure } from '../testing/fuzz-writes';
+import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets as allTargets, hostileFamilies, nextFuzzUrl, payloadsFor, sendOnce, type FuzzFailure } from '../testing/fuzz-writes';
 import { startHarness } from '../testing/api-harness';
 
+const only = process.env['QWELL_FUZZ_ROUTES'];
+const fuzzTargets = only ? allTargets.filter((t) => `${t.method} ${t.path}`.includes(only)) : allTargets;
+
 async function main(): Promise<void> {
+  if (fuzzTargets.length === 0) throw new Error(`QWELL_FUZZ_ROUTES="${only}" matches no route of the fuzz table`);
   const total = Number(process.argv[2] ?? 10_000);
   const perRoute = Math.ceil(total / fuzzTargets.length);
   const h = await startHarness();
@@ -18,11 +25,11 @@ async function main(): Promise<void> {
   let cases = 0;
   for (const target of fuzzTargets) {
     const client = clients[target.actor];
-    const url = fuzzUrl(target, ids);
     const statuses = new Map<number, number>();
     const samples = fc.sample(payloadsFor(target, ids), { numRuns: perRoute, seed: 7 + cases });
     for (const body of samples) {
       const seen = new Set<number>();
+      const url = await nextFuzzUrl(h.handle.db, target, ids);
       const failure = await fuzzOnce(h.handle.db, client, target.method, url, body, seen);
       for (const s of seen) statuses.set(s, (statuses.get(s) ?? 0) + 1);
       if (failure) failures.push(failure);
@@ -38,13 +45,13 @@ async function main(): Promise<void> {
   const hostileStarted = Date.now();
   for (const target of fuzzTargets) {
     const client = clients[target.actor];
-    const url = fuzzUrl(target, ids);
     const jobs: Array<[string, unknown]> = [];
     for (const [family, arbitrary] of Object.entries(hostileFamilies(target.valid(ids)))) {
       for (const body of fc.sample(arbitrary, { numRuns: perFamily, seed: 16 + jobs.length })) jobs.push([family, body]);
     }
     for (let i = 0; i < jobs.length; i += PARALLEL) {
       await Promise.all(jobs.slice(i, i + PARALLEL).map(async ([family, body]) => {
+        const url = await nextFuzzUrl(h.handle.db, target, ids);
         const res = await sendOnce(h.handle.db, client, target.method, url, body);
         const entry = families.get(family) ?? { cases: 0, statuses: new Map<number, number>() };
         entry.cases += 1;
@@ -57,6 +64,21 @@ async function main(): Promise<void> {
   }
   console.log(`\nhostile families, ${PARALLEL} requests in parallel, every route (${((Date.now() - hostileStarted) / 1000).toFixed(1)} s):`);
   for (const [family, { cases: n, statuses }] of families) console.log(`${family.padEnd(24)} ${String(n).padStart(6)} cases  statuses ${JSON.stringify(Object.fromEntries(statuses))}`);
+  // The same valid request PARALLEL times at once, on fresh records (a double click, a retried commit).
+  const fresh = await fuzzParams(h.handle.db);
+  const freshClients = await fuzzClients(h.app, h.handle.db, fresh);
+  console.log(`\nthe valid payload, ${PARALLEL} identical requests at once:`);
+  for (const target of fuzzTargets) {
+    const url = await nextFuzzUrl(h.handle.db, target, fresh);
+    const answers = await Promise.all(Array.from({ length: PARALLEL }, () => sendOnce(h.handle.db, freshClients[target.actor], target.method, url, target.valid(fresh))));
+    const statuses = new Map<number, number>();
+    for (const res of answers) {
+      statuses.set(res.status, (statuses.get(res.status) ?? 0) + 1);
+      if (res.status >= 500) failures.push({ route: `${target.method} ${target.path} [identical, parallel]`, status: res.status, body: res.body, payload: res.sent });
+      cases += 1;
+    }
+    console.log(`${`${target.method} ${target.path}`.padEnd(48)} statuses ${JSON.stringify(Object.fromEntries(statuses))}`);
+  }
   await h.close();
   console.log(`\n${cases} cases in ${((Date.now() - started) / 1000).toFixed(1)} s; ${failures.length} failure(s)`);
   for (const f of failures.slice(0, 20)) console.log(JSON.stringify(f));

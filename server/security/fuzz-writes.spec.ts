@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { eq } from 'drizzle-orm';
 import { runs } from '../../db/schema';
-import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, fuzzUrl, hostileFamilies, payloadsFor, rowCounts, sendOnce, type FuzzIds } from '../../testing/fuzz-writes';
+import { fuzzClients, fuzzOnce, fuzzParams, fuzzTargets, hostileFamilies, nextFuzzUrl, payloadsFor, rowCounts, sendOnce, type FuzzIds } from '../../testing/fuzz-writes';
 import { listRoutes } from '../../testing/route-list';
 
 let h: ApiHarness;
@@ -24,9 +24,6 @@ const NOT_FUZZED: Record<string, string> = {
   'POST /api/auth/sign-in': 'server/auth: sign-in hardening (rate limits, lockout, bad bodies)',
   'POST /api/auth/sign-out': 'takes no body',
   'POST /api/imports': 'multipart upload: server/imports (zip inspection, limits, hostile workbooks)',
-  'POST /api/imports/column-maps': 'server/imports specs (not yet in the fuzz table)',
-  'POST /api/imports/:id/check': 'needs an upload first: server/imports specs (not yet in the fuzz table)',
-  'POST /api/imports/:id/commit': 'needs an upload first: server/imports specs (not yet in the fuzz table)',
 };
 
 describe('the fuzz table', () => {
@@ -42,16 +39,19 @@ describe('the fuzz table', () => {
       .filter((key) => !(key in NOT_FUZZED))
       .filter((key) => { const [method, path] = key.split(' '); return !fuzzTargets.some((t) => t.method === method && covers(path, t.path)); });
     expect(uncovered).toEqual([]);
-    expect(fuzzTargets.map((t) => `${t.method} ${t.path}`)).toEqual(expect.arrayContaining(['POST /api/apparatus/:apparatus/standardizations', 'POST /api/apparatus/:apparatus/changes']));
+    expect(fuzzTargets.map((t) => `${t.method} ${t.path}`)).toEqual(expect.arrayContaining([
+      'POST /api/apparatus/:apparatus/standardizations', 'POST /api/apparatus/:apparatus/changes',
+      'POST /api/imports/column-maps', 'POST /api/imports/:import/check', 'POST /api/imports/:import/commit',
+    ]));
   });
 });
 
 describe('fuzzing the write routes', () => {
   it.each(fuzzTargets.map((t) => [`${t.method} ${t.path}`, t] as const))('%s never answers 5xx nor writes on refusal', async (_name, target) => {
-    const url = fuzzUrl(target, ids);
     const statuses = new Set<number>();
     await fc.assert(
       fc.asyncProperty(payloadsFor(target, ids), async (body) => {
+        const url = await nextFuzzUrl(h.handle.db, target, ids);
         const failure = await fuzzOnce(h.handle.db, clients[target.actor], target.method, url, body, statuses);
         if (failure) throw new Error(`fuzz failure: ${JSON.stringify(failure)}`);
       }),
@@ -68,7 +68,7 @@ describe('fuzzing the write routes', () => {
     const answers: Record<string, number> = {};
     for (const target of fuzzTargets) {
       const statuses = new Set<number>();
-      await fuzzOnce(h.handle.db, freshClients[target.actor], target.method, fuzzUrl(target, fresh), target.valid(fresh), statuses);
+      await fuzzOnce(h.handle.db, freshClients[target.actor], target.method, await nextFuzzUrl(h.handle.db, target, fresh), target.valid(fresh), statuses);
       answers[`${target.method} ${target.path}`] = [...statuses][0];
     }
     // Approval also needs the queued balance check's result, which this harness does not run: a
@@ -80,11 +80,11 @@ describe('fuzzing the write routes', () => {
 describe('the hostile families of issue 16, sent in parallel', () => {
   // A few of each family per route here; tools/fuzz runs a tenth of its cases again as these.
   const PER_FAMILY = 3;
-  it.each(fuzzTargets.map((t) => [`${t.method} ${t.path}`, t] as const))('%s answers no 5xx to control characters, deep nesting, overflow, wrong nested types, prototype keys', async (_name, target) => {
-    const url = fuzzUrl(target, ids);
+  it.each(fuzzTargets.map((t) => [`${t.method} ${t.path}`, t] as const))('%s answers no 5xx to control characters, deep nesting, overflow, wrong nested types, prototype keys, huge strings', async (_name, target) => {
     const sends: Array<Promise<{ family: string; status: number; sent: string }>> = [];
     for (const [family, arbitrary] of Object.entries(hostileFamilies(target.valid(ids)))) {
       for (const body of fc.sample(arbitrary, { numRuns: PER_FAMILY, seed: 16 })) {
+        const url = await nextFuzzUrl(h.handle.db, target, ids);
         sends.push(sendOnce(h.handle.db, clients[target.actor], target.method, url, body).then((r) => ({ family, status: r.status, sent: r.sent })));
       }
     }
@@ -92,6 +92,22 @@ describe('the hostile families of issue 16, sent in parallel', () => {
     expect(answers.filter((a) => a.status >= 500)).toEqual([]);
     // Every deep, prototype-key and control-character payload is refused (these are never valid).
     expect(answers.filter((a) => ['deep nesting', 'prototype key', 'control character'].includes(a.family) && a.status < 400)).toEqual([]);
+  });
+});
+
+describe('identical requests at once (a double click, a client that retries)', () => {
+  it('the valid payload of every route, sent 8 times at once on fresh records, answers no 5xx', async () => {
+    const fresh = await fuzzParams(h.handle.db);
+    const freshClients = await fuzzClients(h.app, h.handle.db, fresh);
+    const answers: Array<{ route: string; status: number }> = [];
+    for (const target of fuzzTargets) {
+      const url = await nextFuzzUrl(h.handle.db, target, fresh);
+      const sent = await Promise.all(Array.from({ length: 8 }, () => sendOnce(h.handle.db, freshClients[target.actor], target.method, url, target.valid(fresh))));
+      answers.push(...sent.map((r) => ({ route: `${target.method} ${target.path}`, status: r.status })));
+    }
+    expect(answers.filter((a) => a.status >= 500)).toEqual([]);
+    // An import commits once: one run, the seven others are told it was committed already (server/imports/import-parallel.spec.ts counts the rows).
+    expect(answers.filter((a) => a.route === 'POST /api/imports/:import/commit').map((a) => a.status).sort()).toEqual([201, 409, 409, 409, 409, 409, 409, 409]);
   });
 });
 
