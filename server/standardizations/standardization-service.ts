@@ -90,8 +90,9 @@ export class StandardizationService {
     };
   }
 
-  private async withSigner(rows: StandardizationRow[]) {
-    const names = new Map((await this.db.select({ id: people.id, name: people.name }).from(people)).map((p) => [p.id, p.name]));
+  /** The rows as the API answers them; inside a transaction pass it, so the answer needs no second connection. */
+  private async withSigner(rows: StandardizationRow[], db: DbOrTx = this.db) {
+    const names = new Map((await db.select({ id: people.id, name: people.name }).from(people)).map((p) => [p.id, p.name]));
     return rows.map((s) => ({
       id: s.id, energyEquivalent: { value: s.energyEquivalent, u: s.energyEquivalentU },
       heatLossCoefficient: s.heatLossCoefficient === null ? null : { value: s.heatLossCoefficient, u: s.heatLossCoefficientU },
@@ -164,7 +165,9 @@ export class StandardizationService {
       }).returning();
       await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'standardization.approve', entityType: 'apparatus', entityId: apparatusId, after: { standardizationId: row.id, energyEquivalent: s.mean, u, runIds: row.runIds, effectiveFrom: today }, reason: row.reason, ip });
       await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'signature.create', entityType: 'standardization', entityId: row.id, after: { apparatusId, meaning: body.meaning, signedHash }, reason: row.reason, ip });
-      return (await this.withSigner([row]))[0];
+      // Read through tx: a second pool connection, asked for while holding the apparatus lock, hung the
+      // server once as many signings as the pool has connections were waiting for that lock.
+      return (await this.withSigner([row], tx))[0];
     });
   }
 
