@@ -1,10 +1,11 @@
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import type { Express } from 'express';
 import { createDb, type DbHandle } from '../../db/client';
 import { balanceResults, runs } from '../../db/schema';
 import { startHarness, type ApiClient, type ApiHarness } from '../../testing/api-harness';
 import { fuzzClients, fuzzParams, fuzzTargets, nextFuzzUrl, sendOnce, type FuzzIds } from '../../testing/fuzz-writes';
 import { createApp } from '../app';
+import { runBalanceCheck } from '../balance/balance-check';
 
 // A request that holds a transaction (and its locks) and then asks the pool for a second connection
 // waits for itself once the pool is spent: eight identical standardization signings at once hung the
@@ -54,4 +55,14 @@ it.each(fuzzTargets.map((t) => [`${t.method} ${t.path}`, t] as const))('%s answe
   if (!ORDER_DEPENDENT.has(name)) expect({ route: name, accepted: [200, 201].includes(res.status) || res.status }).toEqual({ route: name, accepted: true });
   // Signing answers with the signer's name, read inside the signing transaction.
   if (name === 'POST /api/apparatus/:apparatus/standardizations') expect((res.body as { signedBy: string }).signedBy).toBe('Fuzz quality');
+}, 20_000);
+
+it('runs the queued balance check of the submitted draft on the one connection', async () => {
+  // The table above put readings on the draft and submitted it; the job the queue would run checks it.
+  const [draft] = await one.db.select({ version: runs.version, state: runs.state }).from(runs).where(eq(runs.id, ids[':draft']));
+  expect(draft.state).toBe('submitted');
+  expect(await runBalanceCheck(one.db, h.config, ids[':draft'], draft.version)).toBe('stored');
+  const stored = await one.db.select({ verdict: balanceResults.verdict }).from(balanceResults)
+    .where(and(eq(balanceResults.runId, ids[':draft']), eq(balanceResults.current, true)));
+  expect(stored).toHaveLength(1);
 }, 20_000);
