@@ -8,6 +8,7 @@ export * from './units';
 export * from './wire';
 export * from './audit';
 export * from './corrections';
+export * from './text-limits';
 export * from './api/runs';
 export * from './api/result';
 export * from './api/home';

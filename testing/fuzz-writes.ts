@@ -221,14 +221,14 @@ export interface RawBody {
 const isRaw = (v: unknown): v is RawBody => typeof v === 'object' && v !== null && typeof (v as RawBody).raw === 'string' && Object.keys(v).length === 1;
 
 /** Paths to every value inside a payload (arrays: their first three items), for changes deep inside it. */
-function pathsOf(value: unknown, prefix: Array<string | number> = [], out: Array<Array<string | number>> = []): Array<Array<string | number>> {
+export function pathsOf(value: unknown, prefix: Array<string | number> = [], out: Array<Array<string | number>> = []): Array<Array<string | number>> {
   if (prefix.length > 0) out.push(prefix);
   if (Array.isArray(value)) value.slice(0, 3).forEach((v, i) => pathsOf(v, [...prefix, i], out));
   else if (value && typeof value === 'object') for (const [k, v] of Object.entries(value)) pathsOf(v, [...prefix, k], out);
   return out;
 }
 
-function setAt(value: unknown, path: Array<string | number>, replacement: unknown): unknown {
+export function setAt(value: unknown, path: Array<string | number>, replacement: unknown): unknown {
   if (path.length === 0) return replacement;
   const copy = (Array.isArray(value) ? [...value] : { ...(value as Record<string, unknown>) }) as Record<string | number, unknown>;
   copy[path[0]] = setAt((value as Record<string | number, unknown>)[path[0]], path.slice(1), replacement);

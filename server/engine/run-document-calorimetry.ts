@@ -1,6 +1,7 @@
 // Validation of a run document's calorimetry fields: purpose, heatSource and periods (docs/run-document.md).
 import { MASSIC_ENERGY_FACTORS, type HeatSource } from './energy-equivalent';
 import { isUnit } from './units';
+import { TEXT_LIMITS, tooLong } from '../../contract/text-limits';
 
 export type RunPurpose = 'measurement' | 'standardization';
 export const PURPOSES: readonly RunPurpose[] = ['measurement', 'standardization'];
@@ -46,6 +47,7 @@ export function validateCalorimetryFields(input: Record<string, unknown>, add: A
       }
     } else if (src['kind'] === 'reference-material') {
       if (typeof src['material'] !== 'string' || src['material'].trim() === '') add('heatSource.material', 'is required (e.g. "benzoic acid, NIST SRM 39j")');
+      else if (src['material'].length > TEXT_LIMITS.name) add('heatSource.material', tooLong(TEXT_LIMITS.name, src['material'].length));
       quantity(src['mass'], 'heatSource.mass', add, (u) => isUnit('mass', u), 'kg, g, mg', true);
       const me = src['massicEnergy'];
       quantity(me, 'heatSource.massicEnergy', add, (u) => typeof u === 'string' && u in MASSIC_ENERGY_FACTORS, Object.keys(MASSIC_ENERGY_FACTORS).join(', '), true);
@@ -60,6 +62,7 @@ export function validateCalorimetryFields(input: Record<string, unknown>, add: A
           const p = `heatSource.corrections[${i}]`;
           if (!isObject(c)) return add(p, 'must be an object { name, energy }');
           if (typeof c['name'] !== 'string' || c['name'].trim() === '') add(`${p}.name`, 'is required (e.g. "ignition wire")');
+          else if (c['name'].length > TEXT_LIMITS.name) add(`${p}.name`, tooLong(TEXT_LIMITS.name, c['name'].length));
           quantity(c['energy'], `${p}.energy`, add, (u) => isUnit('energy', u), 'J, kJ, cal_th, Wh', false);
         });
       }

@@ -1,5 +1,6 @@
 // Validation of the corrections a run document's instruments state (calibration.correction; corrections.ts).
 import { CHANNEL_UNIT_KINDS } from '../../contract/channels';
+import { TEXT_LIMITS, tooLong } from '../../contract/text-limits';
 import { isUnit, unitsOf, type UnitKind } from './units';
 
 const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
@@ -13,12 +14,13 @@ export function validateCorrection(corr: unknown, p: string, add: Add): void {
   const extra = Object.keys(corr).filter((k) => !['certificate', 'gain', 'offset', 'unit'].includes(k));
   if (extra.length) add(p, `has unknown field(s) ${extra.join(', ')}; a correction is { certificate?, gain?, offset?, unit? }`);
   const cert = corr['certificate'];
-  if (cert !== undefined && (typeof cert !== 'string' || cert === '' || cert.length > 100)) add(`${p}.certificate`, 'must be the certificate\'s number as text (1 to 100 characters)');
+  if (cert !== undefined && (typeof cert !== 'string' || cert === '' || cert.length > TEXT_LIMITS.certificate)) add(`${p}.certificate`, `must be the certificate's number as text (1 to ${TEXT_LIMITS.certificate} characters)`);
   const gain = corr['gain'];
   if (gain !== undefined && !(isFiniteNumber(gain) && gain > 0)) add(`${p}.gain`, `must be a number greater than 0, got ${JSON.stringify(gain)}`);
   const offset = corr['offset'];
   if (offset !== undefined && !isFiniteNumber(offset)) add(`${p}.offset`, `must be a finite number, got ${JSON.stringify(offset)}`);
   if (corr['unit'] !== undefined && typeof corr['unit'] !== 'string') add(`${p}.unit`, 'must be a unit code such as "degC" or "kPa"');
+  else if (typeof corr['unit'] === 'string' && corr['unit'].length > TEXT_LIMITS.unit) add(`${p}.unit`, `must be a unit code such as "degC" or "kPa"; ${tooLong(TEXT_LIMITS.unit, corr['unit'].length)}`);
 }
 
 /** A correction stated in a unit needs a unit of every reading its instrument takes (channels and the barometer). */

@@ -3,6 +3,7 @@
 import type { RunTimeUnit } from '../../contract/api/runs';
 import { CHANNEL_UNIT_KINDS } from '../../contract/channels';
 import { RUN_PROCESSES } from '../../contract/runs';
+import { TEXT_LIMITS, tooLong } from '../../contract/text-limits';
 import { SPECIES, type Species } from './gases';
 import type { InstrumentSpec } from './instrument-uncertainty';
 import { validateCalorimetryFields, type CalorimetryFields } from './run-document-calorimetry';
@@ -146,6 +147,12 @@ class Collector {
     this.unit(v['unit'], `${path}.unit`, kind);
     this.number(v, 'u', path, { min: 0 });
   }
+  /** Optional free text: a string of at most `max` characters. */
+  text(v: unknown, path: string, max: number): void {
+    if (v === undefined) return;
+    if (typeof v !== 'string') this.add(path, 'must be a string');
+    else if (v.length > max) this.add(path, tooLong(max, v.length));
+  }
   unit(v: unknown, path: string, kind: UnitKind, extra: string[] = []): void {
     if (!isUnit(kind, v) && !extra.includes(v as string)) {
       this.add(path, `unknown ${kind} unit ${JSON.stringify(v)}; use one of ${[...unitsOf(kind), ...extra].join(', ')}`);
@@ -153,14 +160,15 @@ class Collector {
   }
 }
 
+/** The document's own free text: its id is a code, the rest are a title's and a name's length. */
+const DOCUMENT_TEXT: Array<[string, number]> = [['id', TEXT_LIMITS.code], ['title', TEXT_LIMITS.title], ['lab', TEXT_LIMITS.name], ['operator', TEXT_LIMITS.name]];
+
 export function validateRunDocument(input: unknown): ValidationResult {
   const c = new Collector();
   if (!isObject(input)) return { ok: false, errors: [{ path: '', message: 'a run document must be a JSON object' }] };
   if (input['format'] !== RUN_FORMAT) c.add('format', `must be "${RUN_FORMAT}", got ${JSON.stringify(input['format'])}`);
   if (input['version'] !== RUN_FORMAT_VERSION) c.add('version', `must be ${RUN_FORMAT_VERSION} (the only version this engine reads), got ${JSON.stringify(input['version'])}`);
-  for (const key of ['id', 'title', 'lab', 'operator']) {
-    if (input[key] !== undefined && typeof input[key] !== 'string') c.add(key, 'must be a string');
-  }
+  for (const [key, max] of DOCUMENT_TEXT) c.text(input[key], key, max);
   if (!isIsoDate(input['runDate'])) c.add('runDate', `must be an ISO 8601 date such as "2026-03-14", got ${JSON.stringify(input['runDate'])}`);
 
   const process = input['process'];
@@ -194,6 +202,7 @@ export function validateRunDocument(input: unknown): ValidationResult {
 
   const apparatus = isObject(input['apparatus']) ? input['apparatus'] : {};
   if (input['apparatus'] !== undefined && !isObject(input['apparatus'])) c.add('apparatus', 'must be an object');
+  c.text(apparatus['name'], 'apparatus.name', TEXT_LIMITS.name);
   for (const [key, kind] of Object.entries(APPARATUS_KINDS)) {
     if (apparatus[key] !== undefined) c.quantity(apparatus[key], `apparatus.${key}`, kind, { positive: key === 'pistonBore' || key === 'vesselVolume' || key === 'heatCapacity' });
   }
@@ -286,8 +295,10 @@ function validateInstruments(list: unknown, c: Collector): Set<string> {
     const p = `instruments[${i}]`;
     if (!isObject(inst)) return c.add(p, 'must be an object');
     if (typeof inst['id'] !== 'string' || inst['id'] === '') c.add(`${p}.id`, 'is required (a non-empty string)');
+    else if (inst['id'].length > TEXT_LIMITS.instrumentId) c.add(`${p}.id`, tooLong(TEXT_LIMITS.instrumentId, inst['id'].length));
     else if (ids.has(inst['id'])) c.add(`${p}.id`, `duplicates the id "${inst['id']}"`);
     else ids.add(inst['id']);
+    c.text(inst['name'], `${p}.name`, TEXT_LIMITS.name);
     for (const key of ['percentOfReading', 'percentOfFullScale', 'fullScale', 'resolution', 'repeatability']) c.number(inst, key, p, { min: 0 });
     if (inst['percentOfFullScale'] !== undefined && inst['fullScale'] === undefined) c.add(`${p}.fullScale`, 'is required with percentOfFullScale');
     const cal = inst['calibration'];

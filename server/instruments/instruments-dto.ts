@@ -1,7 +1,8 @@
 import { Type } from 'class-transformer';
-import { IsIn, IsNumber, IsObject, IsOptional, IsPositive, IsString, Length, Matches, Min, ValidateNested } from 'class-validator';
+import { IsIn, IsNumber, IsObject, IsOptional, IsPositive, IsString, Length, Matches, MaxLength, Min, ValidateNested } from 'class-validator';
 import { IsCalendarDay, Trimmed } from '../core/validators';
 import { INSTRUMENT_KINDS, type InstrumentKind } from '../../contract/channels';
+import { TEXT_LIMITS, tooLongMessage } from '../../contract/text-limits';
 
 export class InstrumentSpecDto {
   @IsOptional() @IsNumber({}, { message: 'percentOfReading must be a number' }) @Min(0, { message: 'percentOfReading cannot be negative' })
@@ -18,22 +19,22 @@ export class InstrumentSpecDto {
 }
 
 export class CreateInstrumentDto {
-  @IsString() @Matches(/^[A-Z0-9][A-Z0-9-]{0,31}$/, { message: 'tag must be the lab\'s tag in capitals, digits and dashes (e.g. PG-4)' })
+  @IsString() @Matches(/^[A-Z0-9][A-Z0-9-]{0,31}$/, { message: 'tag must be the lab\'s tag in capitals, digits and dashes, at most 32 characters (e.g. PG-4)' })
   tag!: string;
 
-  @Trimmed() @IsString() @Length(3, 200, { message: 'name must be 3 to 200 characters' })
+  @Trimmed() @IsString() @Length(3, TEXT_LIMITS.name, { message: `name must be 3 to ${TEXT_LIMITS.name} characters` })
   name!: string;
 
   @IsIn(INSTRUMENT_KINDS, { message: `kind must be one of ${INSTRUMENT_KINDS.join(', ')}` })
   kind!: InstrumentKind;
 
-  @IsString() @Length(1, 20, { message: 'unit is required (the unit the instrument reads in, e.g. kPa)' })
+  @IsString() @Length(1, TEXT_LIMITS.unit, { message: `unit must be 1 to ${TEXT_LIMITS.unit} characters (the unit the instrument reads in, e.g. kPa)` })
   unit!: string;
 
-  @IsOptional() @IsString() @Length(0, 200)
+  @IsOptional() @IsString() @MaxLength(TEXT_LIMITS.name, { message: tooLongMessage('manufacturer', TEXT_LIMITS.name) })
   manufacturer?: string;
 
-  @IsOptional() @IsString() @Length(0, 100)
+  @IsOptional() @IsString() @MaxLength(TEXT_LIMITS.certificate, { message: tooLongMessage('serialNumber', TEXT_LIMITS.certificate) })
   serialNumber?: string;
 
   @IsOptional() @IsNumber({}, { message: 'rangeMin must be a number' })
@@ -63,7 +64,7 @@ export class CreateCalibrationDto {
   @IsCalendarDay({ message: 'dueOn must be a date like 2027-03-14' })
   dueOn!: string;
 
-  @IsString() @Length(2, 100, { message: 'certificate must name the certificate (2 to 100 characters)' })
+  @IsString() @Length(2, TEXT_LIMITS.certificate, { message: `certificate must name the certificate (2 to ${TEXT_LIMITS.certificate} characters)` })
   certificate!: string;
 
   @IsNumber({}, { message: 'expandedUncertainty must be a number (U, in the instrument\'s unit)' }) @Min(0, { message: 'expandedUncertainty cannot be negative' })
@@ -75,6 +76,6 @@ export class CreateCalibrationDto {
   @IsOptional() @IsObject({ message: 'corrections must be { offset?, gain? }' }) @ValidateNested() @Type(() => CalibrationCorrectionsDto)
   corrections?: CalibrationCorrectionsDto;
 
-  @IsOptional() @IsString() @Length(0, 2000)
+  @IsOptional() @IsString() @MaxLength(TEXT_LIMITS.reason, { message: tooLongMessage('notes', TEXT_LIMITS.reason) })
   notes?: string;
 }

@@ -1,15 +1,16 @@
-import { IsBoolean, IsEmail, IsIn, IsString, Length } from 'class-validator';
+import { IsBoolean, IsEmail, IsIn, IsString, Length, MaxLength } from 'class-validator';
 import { IsOptionalNotNull, Trimmed } from '../core/validators';
 import { roles, type Role } from '../../db/schema';
+import { TEXT_LIMITS, tooLongMessage } from '../../contract/text-limits';
 
 /** ASVS 2.1.1: new passwords are at least 12 characters. */
 export const MIN_PASSWORD_LENGTH = 12;
 
 export class CreatePersonDto {
-  @IsEmail({}, { message: 'email must be an email address' })
+  @IsEmail({}, { message: 'email must be an email address' }) @MaxLength(TEXT_LIMITS.email, { message: tooLongMessage('email', TEXT_LIMITS.email) })
   email!: string;
 
-  @Trimmed() @IsString() @Length(2, 200, { message: 'name must be 2 to 200 characters' })
+  @Trimmed() @IsString() @Length(2, TEXT_LIMITS.name, { message: `name must be 2 to ${TEXT_LIMITS.name} characters` })
   name!: string;
 
   @IsIn(roles, { message: `role must be one of ${roles.join(', ')}` })
@@ -20,7 +21,7 @@ export class CreatePersonDto {
 }
 
 export class UpdatePersonDto {
-  @IsOptionalNotNull() @Trimmed() @IsString() @Length(2, 200, { message: 'name must be 2 to 200 characters' })
+  @IsOptionalNotNull() @Trimmed() @IsString() @Length(2, TEXT_LIMITS.name, { message: `name must be 2 to ${TEXT_LIMITS.name} characters` })
   name?: string;
 
   @IsOptionalNotNull() @IsIn(roles, { message: `role must be one of ${roles.join(', ')}` })

@@ -1,6 +1,7 @@
-import { IsInt, IsOptional, IsString, Length, MaxLength } from 'class-validator';
+import { IsInt, IsNotEmpty, IsOptional, IsString, MaxLength } from 'class-validator';
 import type { SignatureRequest } from '../../contract/api/runs';
 import { REVIEW_ACTIONS, SIGNATURE_MEANINGS, type ReviewAction } from '../../contract/runs';
+import { TEXT_LIMITS, tooLongMessage } from '../../contract/text-limits';
 
 /** What a signature means, in the signer's own choice of words from the contract's fixed list. */
 export const approvalMeanings = SIGNATURE_MEANINGS.approve;
@@ -9,13 +10,13 @@ export const rejectionMeanings = SIGNATURE_MEANINGS.reject;
 
 /** The fields of every electronic signature: the signer's password again, the meaning, an optional reason. */
 export class SignatureFields {
-  @IsString({ message: 'password must be text' }) @Length(1, 1024, { message: 'Enter your password to sign.' })
+  @IsString({ message: 'password must be text' }) @IsNotEmpty({ message: 'Enter your password to sign.' }) @MaxLength(1024, { message: tooLongMessage('password', 1024) })
   password!: string;
 
-  @IsString({ message: 'meaning must be text' }) @Length(1, 200, { message: 'Choose what your signature means.' })
+  @IsString({ message: 'meaning must be text' }) @IsNotEmpty({ message: 'Choose what your signature means.' }) @MaxLength(TEXT_LIMITS.name, { message: tooLongMessage('meaning', TEXT_LIMITS.name) })
   meaning!: string;
 
-  @IsOptional() @IsString({ message: 'reason must be text' }) @MaxLength(4000, { message: 'reason is at most 4000 characters' })
+  @IsOptional() @IsString({ message: 'reason must be text' }) @MaxLength(TEXT_LIMITS.signatureReason, { message: tooLongMessage('reason', TEXT_LIMITS.signatureReason) })
   reason?: string;
 }
 

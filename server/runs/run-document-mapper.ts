@@ -5,6 +5,7 @@ import { RUN_FORMAT, RUN_FORMAT_VERSION, type Apparatus, type Instrument, type R
 import type { CertificateCorrection } from '../engine/corrections';
 import { differenceToSi, fromSi, toSi, type UnitKind } from '../engine/units';
 import { badRequest, type FieldError } from '../core/problem';
+import { TEXT_LIMITS } from '../../contract/text-limits';
 import { columnOf, readingAt, readingsToSi, TIME_FACTORS, type ColumnsInput } from './readings-columns';
 import { CHANNELS, MAX_DECIMALS, channelNames, isDecimals, type ChannelName, type ChannelSetup, type RunSetup } from './run-setup';
 
@@ -212,6 +213,10 @@ export function parseReadingsInput(body: { time?: unknown; channels?: unknown })
         errors.push({ field: `channels.${name}`, message: `${name} must be { unit, values: [...], instrumentId?, reference?, decimals? }` });
       } else {
         if (c['instrumentId'] !== undefined && !Number.isInteger(c['instrumentId'])) errors.push({ field: `channels.${name}.instrumentId`, message: 'instrumentId must be the id of a register instrument' });
+        const instrument = c['instrument'];
+        if (instrument !== undefined && (typeof instrument !== 'string' || instrument.length > TEXT_LIMITS.instrumentId)) {
+          errors.push({ field: `channels.${name}.instrument`, message: `channels.${name}.instrument is the id of an instrument described in the run, text of at most ${TEXT_LIMITS.instrumentId} characters` });
+        }
         if (c['reference'] !== undefined && (name !== 'pressure' || !['absolute', 'gauge'].includes(c['reference'] as string))) {
           errors.push({ field: `channels.${name}.reference`, message: 'reference is "absolute" or "gauge", and only for pressure' });
         }

@@ -5,6 +5,7 @@ import { IsCalendarDay, IsOptionalNotNull, Trimmed } from '../core/validators';
 import { processes, runStates, verdicts, type RunState } from '../../db/schema';
 import type { ReadingsInput } from './run-document-mapper';
 import type { RunSetup } from './run-setup';
+import { TEXT_LIMITS } from '../../contract/text-limits';
 
 type Process = (typeof processes)[number];
 
@@ -57,7 +58,7 @@ export class CreateRunDto implements Omit<CreateRunBody, 'setup'> {
   @IsInt({ message: 'projectId must be the id of one of your projects' })
   projectId!: number;
 
-  @Trimmed() @IsString({ message: 'title must be text' }) @Length(3, 200, { message: 'title must be 3 to 200 characters' })
+  @Trimmed() @IsString({ message: 'title must be text' }) @Length(3, TEXT_LIMITS.title, { message: `title must be 3 to ${TEXT_LIMITS.title} characters` })
   title!: string;
 
   @IsIn(processes, { message: `process must be one of ${processes.join(', ')}` })
@@ -80,7 +81,7 @@ export class UpdateRunDto implements Omit<UpdateRunBody, 'setup'> {
   @IsInt({ message: 'version must be the version of the run you are editing (a whole number)' })
   version!: number;
 
-  @IsOptionalNotNull() @Trimmed() @IsString() @Length(3, 200, { message: 'title must be 3 to 200 characters' })
+  @IsOptionalNotNull() @Trimmed() @IsString({ message: 'title must be text' }) @Length(3, TEXT_LIMITS.title, { message: `title must be 3 to ${TEXT_LIMITS.title} characters` })
   title?: string;
 
   @IsOptionalNotNull() @IsIn(processes, { message: `process must be one of ${processes.join(', ')}` })
@@ -116,6 +117,6 @@ export class VersionDto {
 }
 
 export class ReviseDto {
-  @Trimmed() @IsString() @Length(5, 2000, { message: 'reason must say why the approved run is corrected (5 to 2000 characters)' })
+  @Trimmed() @IsString() @Length(5, TEXT_LIMITS.reason, { message: `reason must say why the approved run is corrected (5 to ${TEXT_LIMITS.reason} characters)` })
   reason!: string;
 }

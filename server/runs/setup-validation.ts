@@ -2,6 +2,7 @@ import { SPECIES } from '../engine/gases';
 import { validateCorrection } from '../engine/run-document-corrections';
 import { isIsoDate, isUnit, toSi, type UnitKind } from '../engine/units';
 import { badRequest, type FieldError } from '../core/problem';
+import { TEXT_LIMITS } from '../../contract/text-limits';
 import { CHANNELS, MAX_DECIMALS, channelNames, isDecimals } from './run-setup';
 
 /** Largest id PostgreSQL's integer column holds; a larger instrumentId could never be read back. */
@@ -38,7 +39,7 @@ class SetupCheck {
     if (typeof v !== 'number' || !Number.isFinite(v)) return this.add(field, `must be a finite number, got ${JSON.stringify(v)}`);
     if (opts.min !== undefined && v < opts.min) this.add(field, `must be at least ${opts.min}, got ${v}`);
   }
-  text(v: unknown, field: string, max = 200) {
+  text(v: unknown, field: string, max: number = TEXT_LIMITS.name) {
     if (v !== undefined && (typeof v !== 'string' || v.length > max)) this.add(field, `must be text of at most ${max} characters`);
   }
   quantity(v: unknown, field: string, kind: UnitKind, extra: readonly string[] = []) {
@@ -83,7 +84,7 @@ function checkInstruments(c: SetupCheck, list: unknown) {
   list.forEach((inst, i) => {
     const f = `setup.instruments[${i}]`;
     if (!c.object(inst, f, ['id', 'name', 'range', 'calibrationDate', 'dueDate', 'calibration', ...INSTRUMENT_NUMBERS])) return;
-    if (typeof inst['id'] !== 'string' || inst['id'] === '' || inst['id'].length > 100) c.add(`${f}.id`, 'must be a non-empty text of at most 100 characters');
+    if (typeof inst['id'] !== 'string' || inst['id'] === '' || inst['id'].length > TEXT_LIMITS.instrumentId) c.add(`${f}.id`, `must be a non-empty text of at most ${TEXT_LIMITS.instrumentId} characters`);
     c.text(inst['name'], `${f}.name`);
     for (const key of INSTRUMENT_NUMBERS) c.number(inst[key], `${f}.${key}`, { min: 0 });
     if (inst['range'] !== undefined && c.object(inst['range'], `${f}.range`, ['min', 'max'])) {
@@ -110,7 +111,7 @@ function checkChannels(c: SetupCheck, channels: unknown) {
     if (!isUnit(CHANNELS[name as keyof typeof CHANNELS], channel['unit'])) c.add(`${f}.unit`, `must be a ${CHANNELS[name as keyof typeof CHANNELS]} unit, got ${JSON.stringify(channel['unit'])}`);
     const id = channel['instrumentId'];
     if (id !== undefined && (!Number.isInteger(id) || (id as number) < 1 || (id as number) > MAX_ID)) c.add(`${f}.instrumentId`, 'must be the id of an instrument of the register (a whole number from 1)');
-    c.text(channel['instrument'], `${f}.instrument`, 100);
+    c.text(channel['instrument'], `${f}.instrument`, TEXT_LIMITS.instrumentId);
     if (channel['reference'] !== undefined && channel['reference'] !== 'absolute' && channel['reference'] !== 'gauge') c.add(`${f}.reference`, 'must be "absolute" or "gauge"');
     const decimals = channel['decimals'];
     if (decimals !== undefined && !isDecimals(decimals)) c.add(`${f}.decimals`, `must be the number of decimals the readings were entered with, a whole number from 0 to ${MAX_DECIMALS}, got ${JSON.stringify(decimals)}`);
@@ -165,7 +166,7 @@ export function setupProblems(setup: unknown): FieldError[] {
     if (ambient['pressure'] !== undefined) {
       // The barometer may be an instrument described in the run (setup.instruments[].id).
       c.quantity(ambient['pressure'], 'setup.ambient.pressure', 'pressure', ['instrument']);
-      c.text((ambient['pressure'] as Record<string, unknown>)?.['instrument'], 'setup.ambient.pressure.instrument', 100);
+      c.text((ambient['pressure'] as Record<string, unknown>)?.['instrument'], 'setup.ambient.pressure.instrument', TEXT_LIMITS.instrumentId);
     }
     if (ambient['temperature'] !== undefined) c.quantity(ambient['temperature'], 'setup.ambient.temperature', 'temperature');
   }
@@ -184,7 +185,7 @@ export function setupProblems(setup: unknown): FieldError[] {
     c.text(time['origin'], 'setup.time.origin', 40);
   }
   if (setup['channels'] !== undefined) checkChannels(c, setup['channels']);
-  c.text(setup['notes'], 'setup.notes', 10_000);
+  c.text(setup['notes'], 'setup.notes', TEXT_LIMITS.runNotes);
   checkCalorimetry(c, setup);
   return c.errors;
 }

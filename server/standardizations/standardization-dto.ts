@@ -2,6 +2,7 @@ import { ArrayMaxSize, ArrayMinSize, IsArray, IsInt, IsOptional, IsString, Lengt
 
 import { STANDARDIZATION_MEANINGS } from '../../contract/runs';
 import { SignatureFields } from '../runs/review-dto';
+import { TEXT_LIMITS } from '../../contract/text-limits';
 
 /** What an approval of a standardization means, in the signer's choice of words from the contract's fixed list. */
 export const standardizationMeanings = STANDARDIZATION_MEANINGS;
@@ -13,7 +14,7 @@ export class ApproveStandardizationDto extends SignatureFields {
 }
 
 export class ApparatusChangeDto {
-  @IsString({ message: 'description must be text' }) @Length(5, 2000, { message: 'description must say what was changed (5 to 2000 characters)' })
+  @IsString({ message: 'description must be text' }) @Length(5, TEXT_LIMITS.reason, { message: `description must say what was changed (5 to ${TEXT_LIMITS.reason} characters)` })
   description!: string;
 
   @IsOptional() @IsString() @Matches(/^\d{4}-\d{2}-\d{2}$/, { message: 'changedOn must be a date such as 2026-03-14' })

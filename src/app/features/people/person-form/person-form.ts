@@ -6,6 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 
+import { TEXT_LIMITS } from '@contract';
 import { ROLES, Role } from '../../../core/auth/auth.models';
 import { RoleLabelPipe } from '../../../shared/role-label-pipe';
 import { DialogSave } from '../../../shared/forms/dialog-save';
@@ -35,9 +36,10 @@ export class PersonForm {
 
   protected readonly roles = ROLES;
   protected readonly minLength = MIN_PASSWORD_LENGTH;
+  protected readonly maxEmail = TEXT_LIMITS.email;
   protected readonly form = inject(FormBuilder).nonNullable.group({
-    name: ['', [Validators.required, Validators.minLength(2), Validators.maxLength(200)]],
-    email: ['', [Validators.required, Validators.email]],
+    name: ['', [Validators.required, Validators.minLength(2), Validators.maxLength(TEXT_LIMITS.name)]],
+    email: ['', [Validators.required, Validators.email, Validators.maxLength(TEXT_LIMITS.email)]],
     role: ['technician' as Role, Validators.required],
     password: ['', [Validators.required, Validators.minLength(MIN_PASSWORD_LENGTH)]],
   });

@@ -9,7 +9,7 @@ import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 
-import { SIGNATURE_MEANINGS } from '@contract';
+import { SIGNATURE_MEANINGS, TEXT_LIMITS } from '@contract';
 
 // The rule the server validates a signature's meaning with (pure; imported here so this spec fails when it changes).
 import { meaningsAccepted } from '../../../../../server/runs/signature-meanings';
@@ -106,6 +106,29 @@ describe('ReviewDialog', () => {
     });
     request.flush({ state: 'approved' });
     expect(close).toHaveBeenCalledWith('approve');
+  });
+
+  it('counts the reason against the server\'s limit and sends nothing while it is over', async () => {
+    await open('return');
+    expect(TEXT_LIMITS.signatureReason).toBe(4000); // server/runs/review-dto.ts checks the same constant
+    await (await password()).setValue('pa55word!');
+    // Typed into the textarea at once (a paste): key by key would take thousands of events.
+    const area = (fixture.nativeElement as HTMLElement).querySelector('textarea')!;
+    area.value = 'r'.repeat(4001);
+    area.dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    expect(text()).toContain('4001 / 4000');
+    await (await signButton()).click();
+    httpTesting.expectNone('/api/runs/7/return');
+    expect(text()).toContain('At most 4000 characters; shorten it by 1.');
+
+    area.value = 'r'.repeat(4000);
+    area.dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    expect(text()).toContain('4000 / 4000');
+    await (await signButton()).click();
+    const request = httpTesting.expectOne('/api/runs/7/return');
+    expect(request.request.body.reason).toHaveLength(4000);
   });
 
   it('asks for a justification before approving an indeterminate check, and says why', async () => {

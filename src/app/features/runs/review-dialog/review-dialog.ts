@@ -8,7 +8,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
-import { MIN_JUSTIFICATION, MIN_REVIEW_REASON, SIGNATURE_MEANINGS } from '@contract';
+import { MIN_JUSTIFICATION, MIN_REVIEW_REASON, SIGNATURE_MEANINGS, TEXT_LIMITS } from '@contract';
 
 import { map } from 'rxjs';
 
@@ -70,6 +70,8 @@ export class ReviewDialog {
     this.data.action === 'approve' && (this.data.result.verdict === 'breaks' || this.data.result.verdict === 'indeterminate');
   protected readonly minReason =
     this.needsJustification ? MIN_JUSTIFICATION : this.data.action === 'approve' ? 0 : MIN_REVIEW_REASON;
+  /** The server's limit for the reason signed with a decision (contract/text-limits.ts). */
+  protected readonly maxReason = TEXT_LIMITS.signatureReason;
   protected readonly reasonLabel = this.needsJustification
     ? 'Justification'
     : this.data.action === 'approve'
@@ -79,7 +81,7 @@ export class ReviewDialog {
   protected readonly form = inject(NonNullableFormBuilder).group({
     password: ['', Validators.required],
     meaning: [this.meanings.length === 1 ? this.meanings[0] : '', Validators.required],
-    reason: ['', this.minReason > 0 ? [Validators.required, minTrimmed(this.minReason)] : []],
+    reason: ['', this.minReason > 0 ? [Validators.required, minTrimmed(this.minReason), Validators.maxLength(this.maxReason)] : [Validators.maxLength(this.maxReason)]],
   });
 
   /** Closes with the decision once signed; a refusal stays open with the server's words. */

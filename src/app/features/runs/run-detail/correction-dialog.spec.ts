@@ -44,6 +44,18 @@ describe('CorrectionDialog', () => {
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('Write at least 5 characters');
   });
 
+  it('counts the reason against the server\'s limit of 2000 characters and opens nothing while it is over', async () => {
+    // A paste: the textarea's value set at once.
+    const area = (fixture.nativeElement as HTMLElement).querySelector('textarea')!;
+    area.value = 'c'.repeat(2001);
+    area.dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain('2001 / 2000');
+    await (await start()).click();
+    httpTesting.expectNone('/api/runs/7/revisions');
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain('At most 2000 characters; shorten it by 1.');
+  });
+
   it('opens the new draft revision with the trimmed reason and closes with its id', async () => {
     await (await reason()).setValue('  Pressure channel entered in gauge, not absolute  ');
     await (await start()).click();

@@ -4,6 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
+import { TEXT_LIMITS } from '@contract';
 import { map } from 'rxjs';
 
 import { DialogSave } from '../../../shared/forms/dialog-save';
@@ -26,7 +27,10 @@ import { RunsApi } from '../runs-api';
           <mat-label>Why this run needs a correction</mat-label>
           <textarea matInput formControlName="reason" rows="3" required></textarea>
           <mat-hint>At least 5 characters; kept in the run's history.</mat-hint>
-          @if (form.controls.reason.invalid) {
+          <mat-hint align="end">{{ form.controls.reason.value.length }} / {{ maxReason }}</mat-hint>
+          @if (form.controls.reason.hasError('maxlength')) {
+            <mat-error>At most {{ maxReason }} characters; shorten it by {{ form.controls.reason.value.length - maxReason }}.</mat-error>
+          } @else if (form.controls.reason.invalid) {
             <mat-error>Write at least 5 characters saying what is corrected and why.</mat-error>
           }
         </mat-form-field>
@@ -45,8 +49,10 @@ export class CorrectionDialog {
   private readonly api = inject(RunsApi);
   protected readonly data = inject<{ runId: number; code: string }>(MAT_DIALOG_DATA);
 
+  /** The server's limit for a correction's reason (contract/text-limits.ts). */
+  protected readonly maxReason = TEXT_LIMITS.reason;
   protected readonly form = inject(NonNullableFormBuilder).group({
-    reason: ['', [Validators.required, (control: { value: string }) => (control.value.trim().length >= 5 ? null : { short: true })]],
+    reason: ['', [Validators.required, Validators.maxLength(TEXT_LIMITS.reason), (control: { value: string }) => (control.value.trim().length >= 5 ? null : { short: true })]],
   });
   protected readonly save = new DialogSave<number>(this.form);
 
