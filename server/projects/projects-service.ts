@@ -31,19 +31,27 @@ export class ProjectsService {
     });
   }
 
-  /** Replaces a project's members in one transaction, the audit row with them. */
+  /**
+   * Replaces a project's members in one transaction, the audit row with them. The body carries no version:
+   * the same list sent again (a double click, a retry) is the same request, so each answers 200 and only a
+   * real change is stored and audited. The project's row is locked first, so that requests at once take
+   * turns: each reads the members the one before it left (without the lock, two deletes saw the same rows
+   * and the second insert collided with the first on the membership key, a 409).
+   */
   async replaceMembers(person: SessionPerson, id: number, body: MembersDto, ip: string | null) {
     const ids = [...new Set(body.personIds)];
+    const sorted = [...ids].sort((a, b) => a - b);
     return this.db.transaction(async (tx) => {
-      const [project] = await tx.select({ id: projects.id }).from(projects).where(eq(projects.id, id));
+      const [project] = await tx.select({ id: projects.id }).from(projects).where(eq(projects.id, id)).for('update');
       if (!project) throw notFound(`There is no project with id ${id}.`);
       const found = ids.length ? await tx.select({ id: people.id }).from(people).where(inArray(people.id, ids)) : [];
       const missing = ids.filter((p) => !found.some((f) => f.id === p));
       if (missing.length) throw badRequest(`No person with id ${missing.join(', ')}.`, [{ field: 'personIds', message: 'unknown person' }]);
-      const before = (await tx.select({ id: projectMembers.personId }).from(projectMembers).where(eq(projectMembers.projectId, id))).map((r) => r.id);
+      const before = (await tx.select({ id: projectMembers.personId }).from(projectMembers).where(eq(projectMembers.projectId, id))).map((r) => r.id).sort((a, b) => a - b);
+      if (before.length === sorted.length && before.every((p, i) => p === sorted[i])) return { id, members: ids };
       await tx.delete(projectMembers).where(eq(projectMembers.projectId, id));
       if (ids.length) await tx.insert(projectMembers).values(ids.map((personId) => ({ projectId: id, personId })));
-      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'project.members', entityType: 'project', entityId: id, before: { members: before.sort((a, b) => a - b) }, after: { members: [...ids].sort((a, b) => a - b) }, ip });
+      await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'project.members', entityType: 'project', entityId: id, before: { members: before }, after: { members: sorted }, ip });
       return { id, members: ids };
     });
   }
