@@ -6,6 +6,7 @@ import { loadFixture, runBodies } from '../testing/fixture-runs';
 import { seriousViolations } from './support/axe';
 import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from './support/browser';
 import { signInAs } from './support/sign-in';
+import { resizeTo } from './support/viewport';
 
 // Per role: the verdict appearing without a reload, the why-sentence, a readable audit row, the import
 // checklist, and an axe-core check with no serious violations on each main screen the role opens.
@@ -40,16 +41,21 @@ async function draftFrom(fixture: string, title: string): Promise<{ id: number; 
   return { id: created.id, code: created.code };
 }
 
-/** axe-core on the current screen at 1366 and 390 px, with a screenshot of each. */
+/**
+ * axe-core on the current screen at 1366 and 390 px, with a screenshot of each: once the resize has landed and
+ * the screen has loaded (no progress bar left), so the check reads the screen a person would read and not a
+ * loading state that a fast machine skips and a slow one shows.
+ */
 async function checkScreen(page: Page, name: string): Promise<void> {
   for (const width of [1366, 390]) {
-    await page.setViewportSize({ width, height: width === 390 ? 844 : 900 });
+    await resizeTo(page, width, width === 390 ? 844 : 900);
     await page.getByRole('heading', { level: 1 }).first().waitFor();
+    await page.locator('mat-progress-bar').first().waitFor({ state: 'detached', timeout: 20_000 });
     const violations = await seriousViolations(page);
     expect({ screen: name, width, violations }).toEqual({ screen: name, width, violations: [] });
     await screenshot(page, `${name}-${width}`);
   }
-  await page.setViewportSize({ width: 1366, height: 900 });
+  await resizeTo(page, 1366, 900);
 }
 
 /** The calorimetric demo run's first temperature as it was entered (°C, with the column's decimals). */
@@ -77,7 +83,7 @@ describe('a technician', () => {
     await page.getByRole('heading', { level: 2, name: 'Ready to submit' }).waitFor({ timeout: 20_000 });
     await checkScreen(page, 'run-entry-ready');
     // Phone width: each unit picker sits beside its value with a short visible label that stays inside its outline.
-    await page.setViewportSize({ width: 390, height: 844 });
+    await resizeTo(page, 390, 844);
     const picker = page.getByRole('combobox', { name: 'Ambient pressure unit' });
     await picker.scrollIntoViewIfNeeded();
     const field = picker.locator('xpath=ancestor::mat-form-field');
@@ -86,7 +92,7 @@ describe('a technician', () => {
     const [fieldBox, labelBox] = [await field.boundingBox(), await label.boundingBox()];
     expect(labelBox!.x + labelBox!.width).toBeLessThanOrEqual(fieldBox!.x + fieldBox!.width);
     await chartShot(page, 'section[aria-labelledby="bench-heading"]', 'run-entry-units-390');
-    await page.setViewportSize({ width: 1366, height: 900 });
+    await resizeTo(page, 1366, 900);
     await page.getByRole('button', { name: 'Submit for the balance check' }).click();
     await page.waitForURL(new RegExp(`/runs/${run.id}$`), { timeout: 20_000 });
     // No reload from here: the page asks again by itself until the check has stored its result.
@@ -96,12 +102,12 @@ describe('a technician', () => {
     expect(await why.textContent()).toMatch(/Why: No heat leak was accounted for: a heat-loss coefficient h ≈ [\d.]+ W\/K would close the balance\./);
     await checkScreen(page, 'run-page-breaks');
     // Phone width: the budget's share sits beside its source, and a line says the rest is a swipe away.
-    await page.setViewportSize({ width: 390, height: 844 });
+    await resizeTo(page, 390, 844);
     const budget = page.locator('qw-budget-table');
     await budget.getByText('swipe the table sideways').waitFor();
     expect((await budget.getByRole('columnheader').allTextContents()).map((t) => t.trim()).slice(0, 2)).toEqual(['Source', 'Share of u²(r)']);
     await chartShot(page, 'qw-budget-table', 'run-page-budget-390');
-    await page.setViewportSize({ width: 1366, height: 900 });
+    await resizeTo(page, 1366, 900);
     await page.goto('/runs');
     await checkScreen(page, 'runs-list-technician');
   });
@@ -133,7 +139,10 @@ describe('a technician, on the charts and the pressure alert', () => {
     // Said once, in kPa with its reference: not the engine's SI figures beside it.
     expect(alertText).toMatch(/Reading \d+ reaches [\d.]+ kPa absolute, above the vessel's rated [\d.]+ kPa absolute\./);
     expect(alertText).not.toMatch(/\d Pa\b/);
-    const note = (await page.locator('qw-pv-diagram .note').textContent()) ?? '';
+    // The note names the claimed curve once the result has reached the diagram: waited for, then read.
+    const claimed = page.locator('qw-pv-diagram .note').filter({ hasText: 'claimed adiabat' });
+    await claimed.waitFor();
+    const note = (await claimed.textContent()) ?? '';
     // γ of CO₂ at the run's mean temperature (300 K → 227 K, about 264 K): between 1.28 and 1.32 (REFERENCES §2b:
     // 1.28854 at 298.15 K, rising as Cp falls with temperature), not the 1.4 of a diatomic gas.
     const gamma = Number(/claimed adiabat \(P·V\^γ = const, γ = (\d\.\d{3})\)/.exec(note)?.[1]);
@@ -141,26 +150,26 @@ describe('a technician, on the charts and the pressure alert', () => {
     expect(gamma).toBeLessThan(1.32);
     await checkScreen(page, 'run-page-pressure-alert');
     for (const width of [1366, 390]) {
-      await page.setViewportSize({ width, height: 844 });
+      await resizeTo(page, width, 844);
       await chartShot(page, 'qw-pv-diagram', `run-page-pv-co2-${width}`);
     }
-    await page.setViewportSize({ width: 1366, height: 900 });
+    await resizeTo(page, 1366, 900);
 
     const heated = await draftFrom('calorimetric', `Bath run, power axis, e2e ${Date.now()}`);
     await page.goto(`/runs/${heated.id}`);
     await page.locator('qw-time-charts canvas').waitFor();
     await checkScreen(page, 'run-page-power-axis');
     for (const width of [1366, 390]) {
-      await page.setViewportSize({ width, height: 844 });
+      await resizeTo(page, width, 844);
       await chartShot(page, 'qw-time-charts', `run-page-power-chart-${width}`);
     }
     // Readings as entered (°C, mA, with their digits), SI on demand.
     const table = page.locator('qw-readings-table');
-    expect(await table.getByRole('columnheader').allTextContents()).toEqual(expect.arrayContaining(['Temperature (°C)', 'Heater current (mA)']));
     const firstTemperature = doc2Temperature();
     await table.getByRole('cell', { name: firstTemperature, exact: true }).first().waitFor();
+    expect(await table.getByRole('columnheader').allTextContents()).toEqual(expect.arrayContaining(['Temperature (°C)', 'Heater current (mA)']));
     for (const width of [1366, 390]) {
-      await page.setViewportSize({ width, height: 844 });
+      await resizeTo(page, width, 844);
       // At phone width the columns pass the screen's edge: a line says so (and the reading number stays put).
       const cue = table.getByText('Swipe the table sideways for the other columns →');
       // The cue follows the table's width once the resize lands, so both states are waited for.
@@ -266,11 +275,11 @@ describe('a quality officer', () => {
     const form = page.getByRole('dialog');
     await form.getByText('The rating is').waitFor();
     for (const width of [1366, 390]) {
-      await page.setViewportSize({ width, height: width === 390 ? 844 : 900 });
+      await resizeTo(page, width, width === 390 ? 844 : 900);
       expect(await seriousViolations(page)).toEqual([]);
       await screenshot(page, `apparatus-form-reference-${width}`);
     }
-    await page.setViewportSize({ width: 1366, height: 900 });
+    await resizeTo(page, 1366, 900);
     await page.keyboard.press('Escape');
     // The safety tile counts the runs over their rated pressure (the technician's CO₂ run above is one) and links to them.
     await page.goto('/home');

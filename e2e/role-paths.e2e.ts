@@ -1,4 +1,4 @@
-import { SIGNATURE_MEANINGS } from '../contract/runs';
+import { RUN_STATE_LABELS, SIGNATURE_MEANINGS } from '../contract/runs';
 import { DEFAULT_DEMO_PASSWORD } from '../db/seed/demo-lab';
 import { openBrowser, screenshot, type Session } from './support/browser';
 import { BASE_URL } from './support/server-process';
@@ -62,14 +62,16 @@ describe('a technician at the bench', () => {
     expect(await page.getByLabel('Reading 3, pressure in kPa').inputValue()).toBe('163.1');
     expect(await page.getByLabel('Reading 5, temperature in °C').inputValue()).toBe('21.1');
     await page.getByText(/Saved \d\d:\d\d/).waitFor({ timeout: 20_000 });
-    expect(page.url()).toMatch(/\/runs\/\d+\/edit$/);
+    // The first save gives the draft its address; waited for, not read at once (it may land just after the label).
+    await page.waitForURL(/\/runs\/\d+\/edit$/, { timeout: 10_000 });
     // The pressure run carries the safety caution with the chosen apparatus's rating (PC-3: 1 MPa).
     await page.getByRole('note').filter({ hasText: /rated pressure/i }).filter({ hasText: /1000 kPa|10 bar/ }).first().waitFor();
     await screenshot(page, 'run-entry-technician');
     await page.getByRole('button', { name: 'Submit for the balance check' }).focus();
     await k.press('Enter');
     await page.waitForURL(/\/runs\/\d+$/, { timeout: 20_000 });
-    await page.getByText(/submitted/i).first().waitFor();
+    // The run's own state line, not any "submitted" on the screen (a confirmation that fades would do too).
+    await page.locator('dd.state').filter({ hasText: RUN_STATE_LABELS.submitted }).waitFor();
     await screenshot(page, 'run-page-after-submit');
   });
 });
@@ -106,7 +108,8 @@ describe('an investigator', () => {
     expect(signed.status()).toBeLessThan(300);
     await dialog.waitFor({ state: 'detached', timeout: SERVER_WAIT_MS });
     await page.getByRole('button', { name: /Approve/ }).first().waitFor({ state: 'detached', timeout: SERVER_WAIT_MS });
-    await page.getByText(/approved/i).first().waitFor();
+    // The run's state line, not the confirmation snack bar ("Run … approved."), which says so even if the page did not reload.
+    await page.locator('dd.state').filter({ hasText: RUN_STATE_LABELS.approved }).waitFor({ timeout: SERVER_WAIT_MS });
     // The signature is listed with its meaning, word for word the contract's.
     await page.getByText(SIGNATURE_MEANINGS.approve[0]).first().waitFor();
   }, 4 * SERVER_WAIT_MS);
@@ -132,7 +135,8 @@ describe('a quality officer', () => {
     // The dialog closes on the server's answer: wait for that answer (bounded, generous, a loaded
     // machine only delays it), check it was stored, then for the dialog's close animation.
     const submit = dialog.getByRole('button', { name: 'Add calibration' });
-    await expect(submit.isEnabled()).resolves.toBe(true);
+    // The form takes the four values as valid: the button is enabled (waited for, so a late validation render is not misread).
+    await dialog.getByRole('button', { name: 'Add calibration', disabled: false }).waitFor({ timeout: 10_000 });
     const [saved] = await Promise.all([
       page.waitForResponse(
         (r) => r.request().method() === 'POST' && /\/api\/instruments\/\d+\/calibrations$/.test(r.url()),
@@ -157,6 +161,8 @@ describe('a student assistant', () => {
     const { page } = s;
     await signInAs(page, 'assistant');
     const nav = page.getByRole('navigation', { name: /main/i });
+    // The assistant's own entries first, so the absent ones are counted in a navigation that has rendered.
+    await nav.getByRole('link', { name: 'Import' }).waitFor();
     expect(await nav.getByRole('link', { name: 'Audit trail' }).count()).toBe(0);
     expect(await nav.getByRole('link', { name: 'People' }).count()).toBe(0);
     await nav.getByRole('link', { name: 'Import' }).click();
@@ -170,6 +176,8 @@ describe('a student assistant', () => {
     await page.goto('/runs?state=submitted');
     await page.getByRole('link', { name: 'R-2026-0003' }).click();
     await page.getByRole('heading', { level: 1, name: /R-2026-0003/ }).waitFor();
+    // Counted once the page has loaded all it asks for (the run, its balance), not in between.
+    await page.locator('mat-progress-bar').first().waitFor({ state: 'detached', timeout: SERVER_WAIT_MS });
     expect(await page.getByRole('button', { name: /Approve|Reject/ }).count()).toBe(0);
     expect(page.url().startsWith(BASE_URL)).toBe(true);
   });
@@ -186,6 +194,8 @@ describe('the other main screens', () => {
     await signInAs(s.page, role);
     await s.page.goto(path);
     await s.page.getByRole('heading', { level: 1 }).waitFor();
+    // A failed load shows its message after the heading: counted once the loading bar has gone, not before.
+    await s.page.locator('mat-progress-bar').first().waitFor({ state: 'detached', timeout: SERVER_WAIT_MS });
     expect(await s.page.getByText(/Not for your role|Something went wrong/i).count()).toBe(0);
     await screenshot(s.page, name);
   });

@@ -9,6 +9,8 @@ import { demoStandardizationReadings } from '../db/seed/demo-standardizations';
 import { join } from 'node:path';
 import { openBrowser, screenshot, SCREENSHOT_DIR, type Session } from './support/browser';
 import { signInAs } from './support/sign-in';
+import { resizeTo } from './support/viewport';
+import { until } from './support/wait';
 import { DEFAULT_DEMO_PASSWORD } from '../db/seed/demo-lab';
 
 const sessions: Session[] = [];
@@ -36,18 +38,19 @@ async function api(page: Page, method: 'GET' | 'POST' | 'PUT', path: string, dat
 
 /**
  * Screenshots at the two widths the screens are checked at, with no serious accessibility violation; the page
- * scrolls inside its own container, so `focus` is scrolled into view first. Waits for the navigation's slide to end.
+ * scrolls inside its own container, so `focus` is scrolled into view first. Waits for the resize to land (the
+ * navigation in its mode for the width, its slide ended): the slide starts a render after the resize, so
+ * animations looked for at once may not have started yet.
  */
 async function screens(page: Page, name: string, focus?: Locator): Promise<void> {
   for (const width of [1366, 390]) {
-    await page.setViewportSize({ width, height: width === 390 ? 844 : 900 });
-    await page.evaluate(() => Promise.all(document.getAnimations().filter((a) => a.effect?.getComputedTiming().iterations !== Infinity).map((a) => a.finished)));
+    await resizeTo(page, width, width === 390 ? 844 : 900);
     const violations = await seriousViolations(page);
     expect({ screen: name, width, violations }).toEqual({ screen: name, width, violations: [] });
     if (focus) await focus.scrollIntoViewIfNeeded();
     await screenshot(page, `${name}-${width}`);
   }
-  await page.setViewportSize({ width: 1280, height: 800 });
+  await resizeTo(page, 1280, 800);
 }
 
 const day = (offset: number) => new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10);
@@ -80,7 +83,9 @@ describe('standardizing a bath calorimeter', () => {
     await technician.page.getByRole('radio', { name: 'Calorimeter (no gas)' }).check();
     await technician.page.getByRole('radio', { name: /Standardization run/ }).check();
     await technician.page.getByRole('radio', { name: 'Reference material' }).check();
-    expect(await technician.page.getByLabel('Certified massic energy (J/g)').inputValue()).toBe('26434');
+    // The field appears with the choice and is filled in by the form: its value is waited for, then checked.
+    const massic = technician.page.getByLabel('Certified massic energy (J/g)');
+    expect(await until(() => massic.inputValue(), (v) => v !== '')).toBe('26434');
     await technician.page.getByLabel('Certified massic energy (J/g)').scrollIntoViewIfNeeded();
     await screenshot(technician.page, 'run-entry-standardization');
     const tag = `BC-E${Date.now().toString(36).toUpperCase().slice(-4)}`;
@@ -135,11 +140,11 @@ describe('standardizing a bath calorimeter', () => {
     expect(await technician.page.locator('qw-time-charts').count()).toBe(1);
     await screens(technician.page, 'run-corrected-rise', technician.page.getByRole('heading', { name: 'Corrected temperature rise' }));
     for (const width of [1366, 390]) {
-      await technician.page.setViewportSize({ width, height: 844 });
+      await resizeTo(technician.page, width, 844);
       await chart.scrollIntoViewIfNeeded();
       await chart.screenshot({ path: join(SCREENSHOT_DIR, `run-temperature-chart-rise-${width}.png`) });
     }
-    await technician.page.setViewportSize({ width: 1280, height: 800 });
+    await resizeTo(technician.page, 1280, 800);
 
     // A repair recorded by the quality officer makes the next run flagged.
     await q.getByLabel('What was changed').fill('Immersion heater replaced after a repair');

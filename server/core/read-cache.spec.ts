@@ -45,12 +45,18 @@ describe('ReadCache', () => {
   it('shares one load among the requests that arrive together after a change', async () => {
     const cache = new ReadCache();
     let loads = 0;
+    // The load lasts until all four requests have reached the handler, so they arrive "together" by construction
+    // rather than within a 100 ms sleep that a loaded machine can outlast.
+    let arrived = 0;
+    let allArrived!: () => void;
+    const together = new Promise<void>((resolve) => (allArrived = resolve));
     const app = express();
     app.get('/slow', async (req, res) => {
       req.recordsVersion = 1;
+      if (++arrived === 4) allArrived();
       await cache.json(req, res, async () => {
         loads += 1;
-        await new Promise((resolve) => setTimeout(resolve, 100));
+        await together;
         return { loads };
       });
     });
