@@ -4,6 +4,7 @@ import type { Page } from 'playwright-core';
 import type { Role } from '../db/schema';
 import { loadFixture, runBodies } from '../testing/fixture-runs';
 import { seriousViolations } from './support/axe';
+import { openedDialog } from './support/dialog';
 import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from './support/browser';
 import { signInAs } from './support/sign-in';
 import { resizeTo } from './support/viewport';
@@ -272,7 +273,7 @@ describe('a quality officer', () => {
     // The register form asks whether the rating is absolute or gauge.
     await page.goto('/apparatus');
     await page.getByRole('button', { name: 'Add apparatus' }).click();
-    const form = page.getByRole('dialog');
+    const form = await openedDialog(page);
     await form.getByText('The rating is').waitFor();
     for (const width of [1366, 390]) {
       await resizeTo(page, width, width === 390 ? 844 : 900);

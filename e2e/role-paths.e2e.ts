@@ -1,6 +1,7 @@
 import { RUN_STATE_LABELS, SIGNATURE_MEANINGS } from '../contract/runs';
 import { DEFAULT_DEMO_PASSWORD } from '../db/seed/demo-lab';
 import { openBrowser, screenshot, type Session } from './support/browser';
+import { openedDialog } from './support/dialog';
 import { BASE_URL } from './support/server-process';
 import { signInAs } from './support/sign-in';
 
@@ -92,7 +93,8 @@ describe('an investigator', () => {
     expect(pdf.headers()['content-type']).toBe('application/pdf');
     expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');
     await page.getByRole('button', { name: /Approve/ }).click();
-    const dialog = page.getByRole('dialog');
+    // Typed into only once the dialog has opened and taken the focus (see openedDialog).
+    const dialog = await openedDialog(page);
     await dialog.getByLabel('Your password').fill(DEFAULT_DEMO_PASSWORD);
     await choose('Meaning of your signature', /reviewed this run and approve/);
     await screenshot(page, 'review-dialog');
@@ -125,7 +127,9 @@ describe('a quality officer', () => {
     await page.getByRole('link', { name: 'LD-3' }).click();
     await page.getByRole('heading', { level: 1, name: /LD-3/ }).waitFor();
     await page.getByRole('button', { name: /Add calibration/ }).click();
-    const dialog = page.getByRole('dialog');
+    // Typed into only once the dialog has opened and taken the focus: a fill that lost its focus to the dialog's
+    // own first-field focus left the form invalid, and no POST came (seen once on a loaded machine).
+    const dialog = await openedDialog(page);
     const today = new Date().toISOString().slice(0, 10);
     const nextYear = `${Number(today.slice(0, 4)) + 1}${today.slice(4)}`;
     await dialog.getByLabel('Calibrated on').fill(today);
@@ -146,7 +150,8 @@ describe('a quality officer', () => {
     ]);
     expect(saved.status()).toBe(201);
     await dialog.waitFor({ state: 'detached', timeout: SERVER_WAIT_MS });
-    await page.getByText('HIAT-CAL-E2E').first().waitFor();
+    // In the page's calibration history, not the confirmation snack bar that names the certificate too.
+    await page.getByRole('table', { name: 'Calibration history' }).getByRole('cell', { name: 'HIAT-CAL-E2E' }).waitFor();
     await screenshot(page, 'instrument-detail-quality');
     await page.getByRole('navigation', { name: /main/i }).getByRole('link', { name: 'Audit trail' }).click();
     await page.getByRole('heading', { level: 1, name: /Audit trail/ }).waitFor();
