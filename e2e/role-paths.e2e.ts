@@ -53,11 +53,14 @@ describe('a technician at the bench', () => {
     // The readings: typed cell by cell, Tab to the right, Enter down.
     await page.getByLabel('Reading 1, time in s').focus();
     const rows = [[0, 97.8, 250, 21.0], [10, 122.3, 200, 21.0], [20, 163.1, 150, 21.1], [30, 244.6, 100, 21.0], [40, 489.2, 50, 21.1]];
-    for (const row of rows) {
+    for (const [i, row] of rows.entries()) {
       for (const [j, v] of row.entries()) {
         await k.type(String(v));
         await k.press(j < row.length - 1 ? 'Tab' : 'Enter');
       }
+      // Enter on the last row adds a row and focuses it after the grid's next render; the Shift+Tabs start from
+      // there only once it has (sent at once, on a fast machine they would walk back along the row just typed).
+      await page.waitForFunction((prefix) => document.activeElement?.getAttribute('aria-label')?.startsWith(prefix) ?? false, `Reading ${i + 2}, `, { timeout: 10_000 });
       for (let j = 0; j < row.length - 1; j++) await k.press('Shift+Tab');
     }
     expect(await page.getByLabel('Reading 3, pressure in kPa').inputValue()).toBe('163.1');
