@@ -205,6 +205,8 @@ describe('the other main screens', () => {
     // A failed load shows its message after the heading: counted once the loading bar has gone, not before.
     await s.page.locator('mat-progress-bar').first().waitFor({ state: 'detached', timeout: SERVER_WAIT_MS });
     expect(await s.page.getByText(/Not for your role|Something went wrong/i).count()).toBe(0);
+    // Any failed load shows in the one problem banner (qw-problem-banner), whatever its words.
+    expect(await s.page.locator('.page-error').count()).toBe(0);
     await screenshot(s.page, name);
   });
 });
