@@ -77,6 +77,16 @@ describe('OUT_OF_RANGE', () => {
     expect(doc.readings.pressure.values[f[0].reading! - 1]).toBeGreaterThan(15.5);
     expect(doc.readings.pressure.values[f[0].reading! - 2]).toBeLessThanOrEqual(15.5);
   });
+  it('writes a thermometer reading out of range in °C, not the stored code', () => {
+    const doc = load('isothermal.json');
+    const thermometer = doc.instruments.find((i: { id: string }) => i.id === doc.readings.temperature.instrument);
+    expect(doc.readings.temperature.unit).toBe('degC');
+    thermometer.range.max = doc.readings.temperature.values[0] - 1;
+    const f = flagsOf(doc, 'OUT_OF_RANGE');
+    // The SI brochure's symbol for the degree Celsius (common practice in every lab text).
+    expect(f[0].message).toMatch(new RegExp(`of ${thermometer.id} is [-\\d.]+ °C, outside its range [-\\d.]+ to [-\\d.]+ °C`));
+    expect(f[0].message).not.toContain('degC');
+  });
   it('does not raise inside the range', () => {
     expect(codes(load('isochoric.json'))).not.toContain('OUT_OF_RANGE');
   });

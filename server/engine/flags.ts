@@ -1,6 +1,7 @@
 // Data-quality flags: what is wrong, at which reading (1-based, as people count), and why it matters.
 import { quickselect } from 'simple-statistics';
 import { correctionFormula } from '../../contract/corrections';
+import { unitSymbol } from '../../contract/units';
 import { dayOf, statedCorrection } from './corrections';
 import { heaterFindings } from './heater-check';
 import type { Instrument, RunDocument } from './run-document';
@@ -200,7 +201,7 @@ export function dataQualityFlags(ctx: FlagContext): Flag[] {
       for (let i = 0; i < N; i++) {
         const v = ch.raw[i];
         if (v < inst.range.min || v > inst.range.max) {
-          out.add('OUT_OF_RANGE', i + 1, `Reading ${i + 1} of ${inst.id} is ${fmt(v)} ${ch.unit}, outside its range ${inst.range.min} to ${inst.range.max} ${ch.unit}; its specification does not hold there.`);
+          out.add('OUT_OF_RANGE', i + 1, `Reading ${i + 1} of ${inst.id} is ${fmt(v)} ${unitSymbol(ch.unit)}, outside its range ${inst.range.min} to ${inst.range.max} ${unitSymbol(ch.unit)}; its specification does not hold there.`);
         }
       }
     }

@@ -125,7 +125,7 @@ describe('row errors, re-mapping and replacing a draft\'s readings', () => {
     expect(res.body.errors).toEqual([
       { row: 4, column: 'Timestamp', index: 0, message: 'duplicate timestamp: the same time as row 3' },
       { row: 5, column: 'Timestamp', index: 0, message: 'time goes backwards: earlier than row 4' },
-      { row: 3, column: 'Temp (degF)', index: 2, message: 'text "warm" in a numeric column (temperature, degF)' },
+      { row: 3, column: 'Temp (degF)', index: 2, message: 'text "warm" in a numeric column (temperature, °F)' },
     ]);
     const before = await importCounts(h.handle.db);
     const commit = await tech.post(`/api/imports/${res.body.importId}/commit`, { mapping: res.body.mapping, target: newRun('Messy logger file') });

@@ -1,6 +1,7 @@
 import { badRequest, type FieldError } from '../core/problem';
 import type { ReadingsInput } from '../runs/run-document-mapper';
 import { PRESSURE_REFERENCES, UNITS_BY_CHANNEL, type ReadingChannel } from '../../contract/channels';
+import { unitSymbol } from '../../contract/units';
 import type { ImportMapping } from '../../contract/api/imports';
 import { channelNames } from '../runs/run-setup';
 import type { ParsedTable } from './table-builder';
@@ -119,7 +120,7 @@ export function checkRows(table: ParsedTable, mapping: ImportMapping): RowCheck 
         if (v > max) max = v;
       } else {
         values[i] = null;
-        fail(i, c.index, `text "${show(v)}" in a numeric column (${c.channel}, ${c.unit})`);
+        fail(i, c.index, `text "${show(v)}" in a numeric column (${c.channel}, ${unitSymbol(c.unit)})`);
       }
     }
     const decimals = table.decimals?.[c.index];

@@ -21,6 +21,7 @@ import {
   pressureToPascal,
 } from '../apparatus-units';
 import { Apparatus, ApparatusBody } from '../apparatus.models';
+import { UnitSymbolPipe } from '../../../shared/unit-symbol-pipe';
 
 const TAG_PATTERN = /^[A-Z0-9][A-Z0-9-]{0,31}$/;
 const KIND_SUGGESTIONS = ['piston-cell', 'vessel', 'bath-calorimeter'];
@@ -33,6 +34,7 @@ function orNull<T, R>(value: T | null, convert: (value: T) => R): R | null {
 @Component({
   selector: 'qw-apparatus-form',
   imports: [
+    UnitSymbolPipe,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,

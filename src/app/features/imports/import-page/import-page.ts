@@ -26,6 +26,7 @@ import { RunsApi } from '../../runs/runs-api';
 import { RUN_STATE_LABELS, RunPage, RunState, RunSummary } from '../../runs/runs.models';
 import { ImportsApi } from '../imports-api';
 import { CommitTarget, ImportMapping, ImportPreview, NewRunSetup, NewRunTarget, RowError } from '../imports.models';
+import { UnitSymbolPipe } from '../../../shared/unit-symbol-pipe';
 
 /** A logger file is imported into a run that claims a named process (a free-form path is entered by hand). */
 const PROCESSES = RUN_PROCESSES.filter((process) => process !== 'free-form');
@@ -41,7 +42,7 @@ function numberOf(text: string): number | null {
 /** Import a logger file: upload, map the columns, choose where the readings go, import all-or-nothing. */
 @Component({
   selector: 'qw-import-page',
-  imports: [ProblemBanner, ImportMappingStep, ImportUpload, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatRadioModule, MatSelectModule],
+  imports: [UnitSymbolPipe, ProblemBanner, ImportMappingStep, ImportUpload, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatRadioModule, MatSelectModule],
   templateUrl: './import-page.html',
   styleUrl: './import-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

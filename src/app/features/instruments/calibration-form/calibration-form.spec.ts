@@ -62,7 +62,8 @@ describe('CalibrationForm', () => {
 
   it("names the instrument and shows U in the instrument's unit", () => {
     expect(page().querySelector('h2')?.textContent).toContain('TC-7');
-    expect(field('Expanded uncertainty U').textContent).toContain('degC');
+    expect(field('Expanded uncertainty U').textContent).toContain('°C');
+    expect(field('Expanded uncertainty U').textContent).not.toContain('degC');
   });
 
   it('refuses a due date on or before the calibration date and sends nothing', async () => {

@@ -10,6 +10,7 @@ import { DialogSave } from '../../../shared/forms/dialog-save';
 import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { InstrumentsApi } from '../instruments-api';
 import { CalibrationRecord, NewCalibration } from '../instruments.models';
+import { UnitSymbolPipe } from '../../../shared/unit-symbol-pipe';
 
 /** What the dialog needs to know about the instrument being calibrated. */
 export interface CalibrationFormData {
@@ -29,6 +30,7 @@ function dueAfterCalibrated(group: AbstractControl): ValidationErrors | null {
 @Component({
   selector: 'qw-calibration-form',
   imports: [
+    UnitSymbolPipe,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,

@@ -27,11 +27,13 @@ import { CalibrationForm, CalibrationFormData } from '../calibration-form/calibr
 import { InstrumentsApi } from '../instruments-api';
 import { CalibrationRecord, InstrumentDetail as Detail } from '../instruments.models';
 import { Confirmation } from '../../../shared/confirmation/confirmation';
+import { UnitSymbolPipe } from '../../../shared/unit-symbol-pipe';
 
 /** One instrument with its calibration history, newest first. */
 @Component({
   selector: 'qw-instrument-detail',
   imports: [
+    UnitSymbolPipe,
     ProblemBanner,
     CalibrationStatusChip,
     DatePipe,

@@ -104,7 +104,8 @@ describe('InstrumentForm', () => {
 
     const panel = document.getElementById(unitSelect?.getAttribute('aria-controls') ?? '');
     const units = Array.from(panel?.querySelectorAll('mat-option') ?? []).map((o) => o.textContent?.trim());
-    expect(units).toEqual(['K', 'degC', 'degF']);
+    // Symbols as the SI brochure writes them, not the stored codes (degC, degF).
+    expect(units).toEqual(['K', '°C', '°F']);
     expect(field('Unit it reads in').textContent).toContain('K');
   });
 

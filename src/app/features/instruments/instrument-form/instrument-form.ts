@@ -13,6 +13,7 @@ import { DialogSave } from '../../../shared/forms/dialog-save';
 import { ProblemBanner } from '../../../shared/problem-banner/problem-banner';
 import { InstrumentsApi } from '../instruments-api';
 import { Instrument, InstrumentSpec, NewInstrument } from '../instruments.models';
+import { UnitSymbolPipe } from '../../../shared/unit-symbol-pipe';
 
 /** The server's rule for tags: capitals, digits and dashes, starting with a capital or digit. */
 export const TAG_PATTERN = /^[A-Z0-9][A-Z0-9-]{0,31}$/;
@@ -28,6 +29,7 @@ function rangeInOrder(group: AbstractControl): ValidationErrors | null {
 @Component({
   selector: 'qw-instrument-form',
   imports: [
+    UnitSymbolPipe,
     MatButtonModule,
     MatDialogModule,
     MatFormFieldModule,

@@ -131,4 +131,29 @@ describe('Instruments register', () => {
     // Investigators read the register; only quality officers add calibrations.
     expect(root.textContent).not.toContain('Add calibration');
   });
+
+  it("writes a thermometer's unit as °C in its range, U and correction, and in the register", async () => {
+    const thermometer: Instrument = { ...instrument(4, 'TC-4', 'valid'), kind: 'temperature', unit: 'degC', rangeMin: -20, rangeMax: 120 };
+    const harness = await openAs('investigator', '/instruments/4');
+    httpTesting.expectOne('/api/instruments/4').flush({
+      ...thermometer,
+      calibrations: [{ id: 9, calibratedOn: '2026-11-01', dueOn: '2027-11-01', certificate: 'CERT-9', expandedUncertainty: 0.01, coverageFactor: 2, corrections: { gain: 1.0004, offset: -0.05 }, notes: '', status: 'valid' }],
+    } satisfies InstrumentDetail);
+    await harness.fixture.whenStable();
+    const text = (harness.fixture.nativeElement as HTMLElement).textContent!.replace(/\s+/g, ' ');
+    // The SI brochure's symbol for the degree Celsius, never the stored code.
+    expect(text).toContain('reads in °C');
+    expect(text).toContain('-20 to 120 °C');
+    expect(text).toContain('0.01 °C (k = 2)');
+    expect(text).toContain('reading × 1.0004 − 0.05 °C');
+    expect(text).not.toContain('degC');
+
+    TestBed.resetTestingModule();
+    const list = await openAs('investigator', '/instruments');
+    httpTesting.expectOne('/api/instruments').flush({ items: [thermometer] });
+    await list.fixture.whenStable();
+    const listed = (list.fixture.nativeElement as HTMLElement).textContent!;
+    expect(listed).toContain('°C');
+    expect(listed).not.toContain('degC');
+  });
 });

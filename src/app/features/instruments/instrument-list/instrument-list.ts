@@ -31,6 +31,7 @@ import {
 import { InstrumentForm } from '../instrument-form/instrument-form';
 import { InstrumentsApi } from '../instruments-api';
 import { Instrument } from '../instruments.models';
+import { UnitSymbolPipe } from '../../../shared/unit-symbol-pipe';
 
 const STATUSES = Object.keys(CALIBRATION_LOOKS) as CalibrationStatus[];
 
@@ -38,6 +39,7 @@ const STATUSES = Object.keys(CALIBRATION_LOOKS) as CalibrationStatus[];
 @Component({
   selector: 'qw-instrument-list',
   imports: [
+    UnitSymbolPipe,
     ProblemBanner,
     CalibrationStatusChip,
     DatePipe,

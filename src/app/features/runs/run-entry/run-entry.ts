@@ -40,6 +40,7 @@ import { SafetyNotices } from './safety-notices/safety-notices';
 import { problemSentence } from './submit-problems';
 import { CHANNEL_KINDS, toSi, unitLabel, unitsOf } from './unit-table';
 import { UnitPicker } from './unit-picker/unit-picker';
+import { UnitSymbolPipe } from '../../../shared/unit-symbol-pipe';
 
 /** Instrument kind of the register that reads each channel. */
 const INSTRUMENT_KINDS: Readonly<Record<ReadingChannel, string>> = {
@@ -61,6 +62,7 @@ function today(): string {
 @Component({
   selector: 'qw-run-entry',
   imports: [
+    UnitSymbolPipe,
     RunChecklist,
     ProblemBanner,
     DatePipe,
