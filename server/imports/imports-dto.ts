@@ -6,6 +6,7 @@ import { channelNames } from '../runs/run-setup';
 import { setupProblems } from '../runs/setup-validation';
 import type { CsvOptions, Delimiter } from './csv-reader';
 import { shortText, type ImportMapping } from './row-validation';
+import { isRecordId } from '../core/route-params';
 
 /** Longest column header a saved map keeps (a logger's header is a few words; the map is listed to everyone). */
 export const MAX_HEADER_LENGTH = 500;
@@ -35,8 +36,7 @@ const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'obj
 const isIndex = (v: unknown) => Number.isInteger(v) && (v as number) >= 0;
 
 /** An id column's range (PostgreSQL integer): a larger number names no record. */
-const MAX_ID = 2 ** 31 - 1;
-const isId = (v: unknown) => Number.isInteger(v) && (v as number) >= 1 && (v as number) <= MAX_ID;
+const isId = isRecordId;
 
 /** Checks the shape of a mapping; what it means for the file is checked against the file (checkMapping). */
 export function parseMapping(value: unknown, prefix = 'mapping'): ImportMapping {

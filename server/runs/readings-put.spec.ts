@@ -94,4 +94,29 @@ describe('PUT /api/runs/:id/readings as a stream', () => {
     expect(stale.status).toBe(409);
     expect(await loadReadings(h.handle.db, run.id)).toEqual(before);
   }, 120_000);
+
+  it('refuses a channel instrumentId that is no register id (2^31 made every later read of the run fail) or names no instrument, inline, in the worker and in a setup, and keeps the run readable', async () => {
+    const before = await loadReadings(h.handle.db, run.id);
+    const current = (await tech.get(`/api/runs/${run.id}`)).body.version as number;
+    const withId = (n: number, instrumentId: unknown) => {
+      const body = readingsOf(n);
+      return Buffer.from(JSON.stringify({ version: current, ...body, channels: { ...body.channels, pressure: { ...body.channels.pressure, instrumentId } } }));
+    };
+    for (const [n, id] of [[10, 2 ** 31], [10, 0], [10, -3], [10, 1.5], [30_000, 2 ** 31], [10, 999_999], [30_000, 999_999]] as const) {
+      const res = await put(withId(n, id));
+      expect({ id, n, status: res.status, fields: (res.body.errors as { field: string }[] | undefined)?.map((e) => e.field) })
+        .toEqual({ id, n, status: 400, fields: ['channels.pressure.instrumentId'] });
+    }
+    // An id no instrument of the register has: the channel would be checked without its instrument, unseen.
+    const unknown = await put(withId(10, 999_999));
+    expect(unknown.body.detail).toBe('There is no instrument with id 999999 in the register; choose the pressure instrument again.');
+    const setup = (await tech.get(`/api/runs/${run.id}`)).body.setup;
+    const patched = await tech.patch(`/api/runs/${run.id}`, { version: current, setup: { ...setup, channels: { ...setup.channels, pressure: { ...setup.channels.pressure, instrumentId: 999_999 } } } });
+    expect(patched.status).toBe(400);
+    expect(patched.body.errors).toEqual([{ field: 'setup.channels.pressure.instrumentId', message: 'unknown instrument 999999' }]);
+    expect(await loadReadings(h.handle.db, run.id)).toEqual(before);
+    const read = await tech.get(`/api/runs/${run.id}`);
+    expect(read.status).toBe(200);
+    expect(read.body.version).toBe(current);
+  }, 120_000);
 });

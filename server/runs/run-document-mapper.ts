@@ -8,6 +8,7 @@ import { badRequest, type FieldError } from '../core/problem';
 import { TEXT_LIMITS } from '../../contract/text-limits';
 import { columnOf, readingAt, readingsToSi, TIME_FACTORS, type ColumnsInput } from './readings-columns';
 import { CHANNELS, MAX_DECIMALS, channelNames, isDecimals, type ChannelName, type ChannelSetup, type RunSetup } from './run-setup';
+import { isRecordId } from '../core/route-params';
 
 export type ReadingRow = Omit<InferSelectModel<typeof readings>, 'runId'>;
 type RegisterInstrument = InferSelectModel<typeof instruments> & { calibration: InferSelectModel<typeof calibrations> | null };
@@ -212,7 +213,7 @@ export function parseReadingsInput(body: { time?: unknown; channels?: unknown })
       } else if (!isPlainObject(c) || typeof c['unit'] !== 'string' || !Array.isArray(c['values'])) {
         errors.push({ field: `channels.${name}`, message: `${name} must be { unit, values: [...], instrumentId?, reference?, decimals? }` });
       } else {
-        if (c['instrumentId'] !== undefined && !Number.isInteger(c['instrumentId'])) errors.push({ field: `channels.${name}.instrumentId`, message: 'instrumentId must be the id of a register instrument' });
+        if (c['instrumentId'] !== undefined && !isRecordId(c['instrumentId'])) errors.push({ field: `channels.${name}.instrumentId`, message: 'instrumentId must be the id of an instrument of the register (a whole number from 1)' });
         const instrument = c['instrument'];
         if (instrument !== undefined && (typeof instrument !== 'string' || instrument.length > TEXT_LIMITS.instrumentId)) {
           errors.push({ field: `channels.${name}.instrument`, message: `channels.${name}.instrument is the id of an instrument described in the run, text of at most ${TEXT_LIMITS.instrumentId} characters` });

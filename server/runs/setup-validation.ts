@@ -2,11 +2,10 @@ import { SPECIES } from '../engine/gases';
 import { validateCorrection } from '../engine/run-document-corrections';
 import { isIsoDate, isUnit, toSi, type UnitKind } from '../engine/units';
 import { badRequest, type FieldError } from '../core/problem';
+import { isRecordId } from '../core/route-params';
 import { TEXT_LIMITS } from '../../contract/text-limits';
 import { CHANNELS, MAX_DECIMALS, channelNames, isDecimals } from './run-setup';
 
-/** Largest id PostgreSQL's integer column holds; a larger instrumentId could never be read back. */
-const MAX_ID = 2 ** 31 - 1;
 
 const APPARATUS_KINDS: Readonly<Record<string, UnitKind>> = {
   heatCapacity: 'heatCapacity', heatLossCoefficient: 'conductance', wallUptake: 'energy', ratedPressure: 'pressure',
@@ -110,7 +109,7 @@ function checkChannels(c: SetupCheck, channels: unknown) {
     if (!c.object(channel, f, ['unit', 'instrumentId', 'instrument', 'reference', 'decimals'])) continue;
     if (!isUnit(CHANNELS[name as keyof typeof CHANNELS], channel['unit'])) c.add(`${f}.unit`, `must be a ${CHANNELS[name as keyof typeof CHANNELS]} unit, got ${JSON.stringify(channel['unit'])}`);
     const id = channel['instrumentId'];
-    if (id !== undefined && (!Number.isInteger(id) || (id as number) < 1 || (id as number) > MAX_ID)) c.add(`${f}.instrumentId`, 'must be the id of an instrument of the register (a whole number from 1)');
+    if (id !== undefined && !isRecordId(id)) c.add(`${f}.instrumentId`, 'must be the id of an instrument of the register (a whole number from 1)');
     c.text(channel['instrument'], `${f}.instrument`, TEXT_LIMITS.instrumentId);
     if (channel['reference'] !== undefined && channel['reference'] !== 'absolute' && channel['reference'] !== 'gauge') c.add(`${f}.reference`, 'must be "absolute" or "gauge"');
     const decimals = channel['decimals'];
