@@ -1,5 +1,5 @@
 import { and, desc, eq } from 'drizzle-orm';
-import { apparatus, auditEvents } from '../../db/schema';
+import { apparatus, auditEvents, standardizations } from '../../db/schema';
 import { clientAs, DEMO_PASSWORD, startHarness, type ApiHarness } from '../../testing/api-harness';
 import { standardizationMeanings } from './standardization-dto';
 import { runStandardization } from './standardization-pin';
@@ -55,6 +55,23 @@ describe('POST /api/apparatus/:id/standardizations', () => {
     const res = await (await clientAs(h.app, 'quality')).get(`/api/apparatus/${bc1}/standardizations`);
     return res.body.series as SeriesItem[];
   };
+  /**
+   * The accepted runs but one (still ≥ 6 over ≥ 3 days): a set other than the standardization in force,
+   * whichever spec signed that one (the demo's holds every accepted run).
+   */
+  const otherThanInForce = async () => {
+    const res = await (await clientAs(h.app, 'quality')).get(`/api/apparatus/${bc1}/standardizations`);
+    const accepted = (res.body.series as SeriesItem[]).filter((s) => s.accepted);
+    const inForce = JSON.stringify([...((res.body.current?.runIds as number[] | undefined) ?? [])].sort((a, b) => a - b));
+    const sets = accepted.map((_, i) => accepted.filter((__, j) => j !== i));
+    return sets.find((set) => JSON.stringify(set.map((s) => s.runId).sort((a, b) => a - b)) !== inForce)!;
+  };
+  /** The runs of the standardization in force, as the series lists them. */
+  const inForceRuns = async () => {
+    const res = await (await clientAs(h.app, 'quality')).get(`/api/apparatus/${bc1}/standardizations`);
+    const ids = res.body.current.runIds as number[];
+    return (res.body.series as SeriesItem[]).filter((s) => ids.includes(s.runId));
+  };
 
   it('is for quality officers only (401, 403)', async () => {
     expect((await (await clientAs(h.app, null)).post(`/api/apparatus/${bc1}/standardizations`).send({})).status).toBe(401);
@@ -93,7 +110,7 @@ describe('POST /api/apparatus/:id/standardizations', () => {
 
   it('signs a standardization from accepted runs, audits it in the same transaction, and pins later runs to it', async () => {
     const q = await clientAs(h.app, 'quality');
-    const accepted = (await inControl()).filter((s) => s.accepted);
+    const accepted = await otherThanInForce();
     const res = await q.post(`/api/apparatus/${bc1}/standardizations`).send({ runIds: accepted.map((s) => s.runId), password: DEMO_PASSWORD, meaning, reason: 'routine re-standardization' });
     expect(res.status).toBe(201);
     const values = accepted.map((s) => s.energyEquivalent.value);
@@ -104,6 +121,22 @@ describe('POST /api/apparatus/:id/standardizations', () => {
     const pin = await runStandardization(h.handle.db, { apparatusId: bc1, runDate: today() });
     expect(pin.standardization?.id).toBe(res.body.id);
     expect(pin.flag).toBeNull();
+  });
+
+  it('refuses to sign the same runs with the same results again, one at a time or three at once (409 naming the record), storing nothing', async () => {
+    const q = await clientAs(h.app, 'quality');
+    const body = { runIds: (await inForceRuns()).map((s) => s.runId), password: DEMO_PASSWORD, meaning };
+    const count = async () => (await h.handle.db.select({ id: standardizations.id }).from(standardizations).where(eq(standardizations.apparatusId, bc1))).length;
+    const before = await count();
+    const [latest] = await h.handle.db.select().from(standardizations).where(eq(standardizations.apparatusId, bc1)).orderBy(desc(standardizations.id)).limit(1);
+    const again = await q.post(`/api/apparatus/${bc1}/standardizations`).send(body);
+    expect(again.status).toBe(409);
+    expect(again.body.detail).toBe(`These runs, with these results, are already signed as the standardization in force (no. ${latest.id}, signed ${today()} by Samir Castellanos); there is nothing new to sign.`);
+    expect(again.body.standardizationId).toBe(latest.id);
+    // Three at once (under the lockout's limit of attempts in flight): the apparatus lock lets one decide.
+    const at = await Promise.all([0, 1, 2].map(() => q.post(`/api/apparatus/${bc1}/standardizations`).send(body)));
+    expect(at.map((r) => r.status)).toEqual([409, 409, 409]);
+    expect(await count()).toBe(before);
   });
 });
 

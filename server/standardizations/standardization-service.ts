@@ -6,7 +6,7 @@ import type { Wire } from '../../contract/wire';
 import type { Database, DbOrTx } from '../../db/client';
 import { apparatus, apparatusChanges, people, standardizations } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
-import { badRequest, notFound } from '../core/problem';
+import { badRequest, conflict, notFound } from '../core/problem';
 import type { SessionPerson } from '../core/session';
 import { sha256Canonical } from '../engine';
 import type { AcceptanceRule, ChartLimits, SeriesSummary } from '../engine/control-chart';
@@ -156,6 +156,14 @@ export class StandardizationService {
       const hMean = f.heatLossCoefficient?.value ?? null;
       const hU = f.heatLossCoefficient?.u ?? null;
       const signedHash = sha256Canonical({ apparatusId, runs: chosen.map((r) => ({ id: r.runId, inputHash: r.inputHash, energyEquivalent: r.energyEquivalent })) });
+      // The same runs with the same results as the standardization in force: signing them again would add a
+      // second, identical signed record (eight identical requests at once stored eight); under the apparatus
+      // lock the first signs and the rest are told which record already holds them.
+      const [latest] = await tx.select().from(standardizations).where(eq(standardizations.apparatusId, apparatusId)).orderBy(desc(standardizations.signedAt), desc(standardizations.id)).limit(1);
+      if (latest?.signedHash === signedHash) {
+        const [signer] = await tx.select({ name: people.name }).from(people).where(eq(people.id, latest.signerId));
+        throw conflict(`These runs, with these results, are already signed as the standardization in force (no. ${latest.id}, signed ${latest.signedAt.toISOString().slice(0, 10)} by ${signer?.name ?? 'a quality officer'}); there is nothing new to sign.`, { standardizationId: latest.id });
+      }
       const today = new Date().toISOString().slice(0, 10);
       const summary = { n: s.n, days: s.days, mean: s.mean, sd: s.sd, uMean: s.uMean, rsd: s.rsd, chart: s.chart, rule: this.rule };
       const [row] = await tx.insert(standardizations).values({
