@@ -1,9 +1,17 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { checkRunDocument, type BalanceResult } from '../server/engine/balance';
 import type { RunDocument } from '../server/engine';
 
 export function loadFixture(name: string): RunDocument {
   return JSON.parse(readFileSync(join(__dirname, '..', 'fixtures', 'runs', `${name}.json`), 'utf8')) as RunDocument;
+}
+
+/** The engine's result for a run document, or the document's errors thrown as they are: for the engine specs. */
+export function checkedResult(doc: unknown, draws = 2000): BalanceResult {
+  const res = checkRunDocument(doc, { draws, seed: 1 });
+  if (!res.ok) throw new Error(JSON.stringify(res.errors));
+  return res.result;
 }
 
 /** The bodies a client sends to create a run from a run document: POST /api/runs, then PUT readings. */

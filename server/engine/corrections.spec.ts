@@ -2,18 +2,12 @@
 // corrected for every recognised significant systematic effect; §3.2.4: the correction's own uncertainty is what
 // the certificate's U states. The checks below correct the readings by hand, in the test, from the
 // certificate's values (reading × gain + offset), never through the engine's own helper.
-import { readFileSync } from 'node:fs';
-import { join } from 'node:path';
 import { checkRunDocument, type BalanceResult } from './balance';
 import type { RunDocument } from './run-document';
+import { checkedResult, loadFixture } from '../../testing/fixture-runs';
 
-const DIR = join(__dirname, '..', '..', 'fixtures', 'runs');
-const load = (name: string): RunDocument => JSON.parse(readFileSync(join(DIR, name), 'utf8'));
-const run = (doc: unknown, draws = 2000): BalanceResult => {
-  const res = checkRunDocument(doc, { draws, seed: 1 });
-  if (!res.ok) throw new Error(JSON.stringify(res.errors));
-  return res.result;
-};
+const load = (name: string): RunDocument => loadFixture(name.replace(/\.json$/, ''));
+const run = checkedResult;
 const errorsOf = (doc: unknown) => {
   const res = checkRunDocument(doc, { draws: 0 });
   return res.ok ? [] : res.errors;
