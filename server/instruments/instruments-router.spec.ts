@@ -35,6 +35,28 @@ describe('GET /api/instruments', () => {
     expect(byTag['PG-2'].calibration.status).toBe('valid');
   });
 
+  it('carries the corrections the latest certificate states, so the run entry can say what the check will read', async () => {
+    const quality = await clientAs(h.app, 'quality');
+    const tag = uniqueTag('TQ');
+    const created = await quality.post('/api/instruments', { tag, name: 'Pt100 probe', kind: 'temperature', unit: 'degC' });
+    expect(created.status).toBe(201);
+    // Invented demo certificates: an older one with no correction, the latest with corrected = reading × 1.0004 − 0.05 °C.
+    const older = await quality.post(`/api/instruments/${created.body.id}/calibrations`, {
+      calibratedOn: '2025-01-10', dueOn: '2026-01-10', certificate: 'HGT-CAL-2025-007', expandedUncertainty: 0.01,
+    });
+    expect(older.status).toBe(201);
+    const latest = await quality.post(`/api/instruments/${created.body.id}/calibrations`, {
+      calibratedOn: '2026-01-10', dueOn: '2027-01-10', certificate: 'HGT-CAL-2026-118', expandedUncertainty: 0.01, corrections: { gain: 1.0004, offset: -0.05 },
+    });
+    expect(latest.status).toBe(201);
+    const list = await (await clientAs(h.app, 'technician')).get('/api/instruments');
+    const item = list.body.items.find((i: { tag: string }) => i.tag === tag);
+    expect(item.calibration).toMatchObject({ certificate: 'HGT-CAL-2026-118', corrections: { gain: 1.0004, offset: -0.05 } });
+    // A certificate that states none lists an empty object, never a missing field.
+    const plain = list.body.items.find((i: { tag: string }) => i.tag === 'PG-2');
+    expect(plain.calibration.corrections).toEqual({});
+  });
+
   it('answers 401 without a session and 404 for an unknown instrument', async () => {
     expect((await (await clientAs(h.app, null)).get('/api/instruments')).status).toBe(401);
     const res = await (await clientAs(h.app, 'quality')).get('/api/instruments/999999');

@@ -12,7 +12,7 @@ import type { CreateCalibrationDto, CreateInstrumentDto } from './instruments-dt
 export class InstrumentsService {
   constructor(private readonly db: Database) {}
 
-  /** The register with each instrument's latest calibration and its status today. */
+  /** The register with each instrument's latest calibration (with the corrections its certificate states) and its status today. */
   async list(today = todayIso()) {
     const latest = this.db
       .selectDistinctOn([calibrations.instrumentId])
@@ -24,7 +24,7 @@ export class InstrumentsService {
         instrument: instruments,
         calibration: {
           id: latest.id, calibratedOn: latest.calibratedOn, dueOn: latest.dueOn, certificate: latest.certificate,
-          expandedUncertainty: latest.expandedUncertainty, coverageFactor: latest.coverageFactor,
+          expandedUncertainty: latest.expandedUncertainty, coverageFactor: latest.coverageFactor, corrections: latest.corrections,
         },
       })
       .from(instruments)

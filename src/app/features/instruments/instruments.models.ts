@@ -26,6 +26,8 @@ export interface CalibrationSummary {
   expandedUncertainty: number;
   /** Coverage factor k of U. */
   coverageFactor: number;
+  /** Corrections the certificate states, in the instrument's unit: reading × gain + offset (either may be missing). */
+  corrections: { offset?: number; gain?: number };
   status: CalibrationStatus;
 }
 
@@ -54,8 +56,6 @@ export interface InstrumentList {
 /** One certificate in an instrument's history. */
 export interface CalibrationRecord extends CalibrationSummary {
   id: number;
-  /** Corrections the certificate states: reading × gain + offset. */
-  corrections: { offset?: number; gain?: number };
   notes: string;
 }
 

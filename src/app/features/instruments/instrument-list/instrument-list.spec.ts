@@ -28,6 +28,7 @@ function instrument(id: number, tag: string, status: 'valid' | 'due-soon' | 'exp
           certificate: `CERT-${id}`,
           expandedUncertainty: 0.8,
           coverageFactor: 2,
+          corrections: {},
           status,
         }
       : null,

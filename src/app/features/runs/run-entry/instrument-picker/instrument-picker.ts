@@ -1,5 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, effect, input, signal } from '@angular/core';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { correctionFormula } from '@contract';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSelectModule } from '@angular/material/select';
@@ -17,9 +18,30 @@ export function expiredOn(instrument: Instrument, runDate: string | null): boole
 }
 
 /**
+ * What the check will do with the instrument's readings when the certificate in force on the run date states a
+ * correction (reading × gain + offset, in the instrument's unit), in the lab's words; null otherwise: no run date,
+ * no certificate, one that states none or gain 1 with offset 0, or one not in force on the run date (made after
+ * it or due before it), as the server decides (server/engine/corrections.ts). The list carries only the latest
+ * certificate, so a run dated before it gets no note (the check may still apply an older certificate's).
+ */
+export function correctionNote(instrument: Instrument, runDate: string | null): string | null {
+  const calibration = instrument.calibration;
+  if (!calibration || !runDate || runDate < calibration.calibratedOn || runDate > calibration.dueOn) {
+    return null;
+  }
+  const gain = calibration.corrections.gain ?? 1;
+  const offset = calibration.corrections.offset ?? 0;
+  if (gain === 1 && offset === 0) {
+    return null;
+  }
+  const formula = correctionFormula({ gain, offset, unit: instrument.unit });
+  return `${instrument.tag}'s certificate ${calibration.certificate} states a correction; the check reads these values as reading ${formula}.`;
+}
+
+/**
  * Picks the register instrument that read one channel: only instruments of the channel's kind,
- * each with its calibration status as icon and word, and a warning when its calibration had
- * expired on the run date.
+ * each with its calibration status as icon and word, a warning when its calibration had
+ * expired on the run date, and a note when the certificate in force states a correction.
  */
 @Component({
   selector: 'qw-instrument-picker',
@@ -50,6 +72,12 @@ export function expiredOn(instrument: Instrument, runDate: string | null): boole
         </p>
       }
     }
+    @if (correction(); as note) {
+      <p class="correction" role="note">
+        <mat-icon aria-hidden="true">verified</mat-icon>
+        <span>{{ note }}</span>
+      </p>
+    }
   `,
   styles: `
     .picker {
@@ -67,7 +95,8 @@ export function expiredOn(instrument: Instrument, runDate: string | null): boole
       color: var(--mat-sys-on-surface-variant);
     }
 
-    .warning {
+    .warning,
+    .correction {
       display: flex;
       gap: 0.5rem;
       align-items: flex-start;
@@ -77,6 +106,11 @@ export function expiredOn(instrument: Instrument, runDate: string | null): boole
       background: var(--mat-sys-error-container);
       color: var(--mat-sys-on-error-container);
       font: var(--mat-sys-body-medium);
+    }
+
+    .correction {
+      background: var(--mat-sys-secondary-container);
+      color: var(--mat-sys-on-secondary-container);
     }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -109,6 +143,11 @@ export class InstrumentPicker {
   protected readonly expired = computed(() => {
     const instrument = this.chosen();
     return instrument ? expiredOn(instrument, this.runDate()) : false;
+  });
+
+  protected readonly correction = computed(() => {
+    const instrument = this.chosen();
+    return instrument ? correctionNote(instrument, this.runDate()) : null;
   });
 
   protected dueText(instrument: Instrument): string {
