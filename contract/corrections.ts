@@ -48,3 +48,23 @@ export function correctionSentence(c: AppliedCorrection): string {
   const source = c.certificate ? `certificate ${c.certificate} of ${c.instrument}` : `the calibration of ${c.instrument}`;
   return `${CORRECTED_READING_LABELS[c.reading]} corrected by ${source}: ${correctionFormula(c)}.`;
 }
+
+/** "a", "a and b", "a, b and c". */
+function listed(items: readonly string[]): string {
+  return items.length < 2 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
+}
+
+/**
+ * One clause naming the certificates whose corrections the check applied, for the sentence of why beside a verdict
+ * and the mail about it, e.g. "Readings corrected by certificate HGT-CAL-2026-118 (TC-9) before the check."; null
+ * when none was applied. Each certificate is named once, however many readings it corrected.
+ */
+export function correctionsClause(corrections: readonly AppliedCorrection[] | undefined): string | null {
+  if (!corrections?.length) return null;
+  const certificates = [...new Set(corrections.filter((c) => c.certificate).map((c) => `${c.certificate} (${c.instrument})`))];
+  const unnamed = [...new Set(corrections.filter((c) => !c.certificate).map((c) => c.instrument))];
+  const sources: string[] = [];
+  if (certificates.length) sources.push(`${certificates.length === 1 ? 'certificate' : 'certificates'} ${listed(certificates)}`);
+  if (unnamed.length) sources.push(`the calibration of ${listed(unnamed)}`);
+  return `Readings corrected by ${listed(sources)} before the check.`;
+}

@@ -1,3 +1,4 @@
+import { correctionsClause, type AppliedCorrection } from '../../contract/corrections';
 import { checkRunDocument } from '../engine';
 import { loadFixture } from '../../testing/fixture-runs';
 import { dominantSource, whySentence, type WhyInput } from './why-sentence';
@@ -66,5 +67,48 @@ describe('whySentence', () => {
       ],
     };
     expect(whySentence(input)).toMatch(/^Pressure logged as absolute/);
+  });
+
+  describe('after the check applied a certificate\'s correction', () => {
+    // Invented demo certificate for the fixture's thermometer TC-9, in force on the run date 2026-03-14: corrected =
+    // reading × 1.0004 − 0.05 °C (applying it to the readings is GUM, JCGM 100:2008 §3.2.3; server/engine/corrections.ts).
+    const corrected = (name: 'calorimetric' | 'calorimetric-heat-leak-forgotten') => {
+      const doc = loadFixture(name);
+      const tc9 = doc.instruments.find((i) => i.id === 'TC-9')!;
+      tc9.calibration = { ...tc9.calibration!, correction: { certificate: 'HGT-CAL-2026-118', gain: 1.0004, offset: -0.05, unit: 'degC' } };
+      return check(doc);
+    };
+
+    it('names the certificate after the reason a balance breaks', () => {
+      const result = corrected('calorimetric-heat-leak-forgotten');
+      expect(result.verdict).toBe('breaks');
+      expect(result.corrections).toHaveLength(1);
+      const h = Number(result.hints.find((x) => x.code === 'FORGOTTEN_HEAT_LEAK')!.value!.toPrecision(2)).toString();
+      expect(whySentence(result)).toBe(
+        `No heat leak was accounted for: a heat-loss coefficient h \u2248 ${h} W/K would close the balance. ` +
+          'Readings corrected by certificate HGT-CAL-2026-118 (TC-9) before the check.',
+      );
+      // The same run without the correction: the reason alone.
+      expect(whySentence({ ...result, corrections: [] })).not.toContain('Readings corrected');
+    });
+
+    it('still says nothing for a balance that closes', () => {
+      const result = corrected('calorimetric');
+      expect(result.corrections).toHaveLength(1);
+      expect(result.verdict).toBe('closes');
+      expect(whySentence(result)).toBeNull();
+    });
+
+    it('names each certificate once, and an instrument whose run document named none by its calibration', () => {
+      const tc9: AppliedCorrection = { reading: 'temperature', instrument: 'TC-9', instrumentName: null, certificate: 'HGT-CAL-2026-118', gain: 1.0004, offset: -0.05, unit: 'degC' };
+      const pg2: AppliedCorrection = { reading: 'pressure', instrument: 'PG-2', instrumentName: null, certificate: 'HGT-CAL-2026-031', gain: 1, offset: -0.2, unit: 'kPa' };
+      const bar: AppliedCorrection = { reading: 'ambientPressure', instrument: 'BP-1', instrumentName: null, certificate: null, gain: 1, offset: 0.1, unit: 'hPa' };
+      expect(correctionsClause([])).toBeNull();
+      expect(correctionsClause(undefined)).toBeNull();
+      expect(correctionsClause([tc9, { ...tc9, reading: 'pressure' }])).toBe('Readings corrected by certificate HGT-CAL-2026-118 (TC-9) before the check.');
+      expect(correctionsClause([tc9, pg2, bar])).toBe(
+        'Readings corrected by certificates HGT-CAL-2026-118 (TC-9) and HGT-CAL-2026-031 (PG-2) and the calibration of BP-1 before the check.',
+      );
+    });
   });
 });

@@ -1,6 +1,7 @@
 // One sentence of why beside a verdict that breaks or is indeterminate, built from a stored result only,
 // so that the run page, e-mails and the PDF report say the same thing. Not engine logic: it reads the
 // engine's budget and hints and words them; it never re-evaluates anything.
+import { correctionsClause, type AppliedCorrection } from '../../contract/corrections';
 import type { Verdict } from '../../contract/runs';
 
 /** The parts of a stored balance result the sentence reads (a subset of the engine's BalanceResult). */
@@ -11,6 +12,8 @@ export interface WhyInput {
   indeterminateLimit: number;
   budget: readonly { group: string; contribution: number }[];
   hints: readonly { code: string; message: string; value?: number; alteredEn?: number }[];
+  /** The certificates' corrections the check applied to the readings (absent in results stored before engine 2.3). */
+  corrections?: readonly AppliedCorrection[];
 }
 
 /** Hints that name one recording slip whose correction makes the balance close. */
@@ -50,9 +53,17 @@ function hintSentence(hint: NonNullable<ReturnType<typeof strongestHint>>): stri
 
 /**
  * Why a run breaks or is indeterminate, in one sentence (null when it closes): the strongest hint
- * when one explains a break, otherwise the dominant source of u(r) and its share.
+ * when one explains a break, otherwise the dominant source of u(r) and its share; followed by a clause
+ * naming the certificates whose corrections the check applied, when it applied any, since the verdict
+ * is about the corrected readings, not the ones in the readings table.
  */
 export function whySentence(result: WhyInput): string | null {
+  const why = reasonOf(result);
+  const corrected = correctionsClause(result.corrections);
+  return why && corrected ? `${why} ${corrected}` : why;
+}
+
+function reasonOf(result: WhyInput): string | null {
   if (result.verdict === 'closes') return null;
   const source = dominantSource(result);
   const sourceWords = source ? `${source.group} (${figure(100 * source.share, 2)} % of u²(r))` : null;
