@@ -57,6 +57,20 @@ describe('GET /api/instruments', () => {
     expect(plain.calibration.corrections).toEqual({});
   });
 
+  it('stores only the corrections a certificate states: a null (an empty form field) is "not stated", never "gain null"', async () => {
+    const quality = await clientAs(h.app, 'quality');
+    const created = await quality.post('/api/instruments', { tag: uniqueTag('TN'), name: 'Pt100 probe', kind: 'temperature', unit: 'degC' });
+    const res = await quality.post(`/api/instruments/${created.body.id}/calibrations`, {
+      calibratedOn: '2026-01-10', dueOn: '2027-01-10', certificate: 'HGT-CAL-2026-119', expandedUncertainty: 0.01, corrections: { gain: null, offset: -0.05 },
+    });
+    expect(res.status).toBe(201);
+    expect(res.body.corrections).toEqual({ offset: -0.05 });
+    const none = await quality.post(`/api/instruments/${created.body.id}/calibrations`, {
+      calibratedOn: '2026-02-10', dueOn: '2027-02-10', certificate: 'HGT-CAL-2026-120', expandedUncertainty: 0.01, corrections: { gain: null, offset: null },
+    });
+    expect(none.body.corrections).toEqual({});
+  });
+
   it('answers 401 without a session and 404 for an unknown instrument', async () => {
     expect((await (await clientAs(h.app, null)).get('/api/instruments')).status).toBe(401);
     const res = await (await clientAs(h.app, 'quality')).get('/api/instruments/999999');

@@ -75,10 +75,22 @@ export class InstrumentsService {
       if (!instrument) throw notFound(`There is no instrument with id ${instrumentId}.`);
       const [row] = await tx.insert(calibrations).values({
         instrumentId, calibratedOn: body.calibratedOn, dueOn: body.dueOn, certificate: body.certificate, expandedUncertainty: body.expandedUncertainty,
-        coverageFactor: body.coverageFactor ?? 2, corrections: { ...(body.corrections ?? {}) }, notes: body.notes ?? '', createdBy: person.id,
+        coverageFactor: body.coverageFactor ?? 2, corrections: statedCorrections(body.corrections), notes: body.notes ?? '', createdBy: person.id,
       }).returning();
       await recordAudit(tx, { actorId: person.id, actorEmail: person.email, action: 'calibration.create', entityType: 'instrument', entityId: instrumentId, after: row, ip });
       return row;
     });
   }
+}
+
+/**
+ * The corrections as stored: only the numbers the certificate states. A null (a form's empty field) means
+ * "not stated" and is left out, so that no run reads "gain null" from the register (which made the check
+ * unable to read every run bound to the instrument).
+ */
+export function statedCorrections(body: { offset?: number | null; gain?: number | null } | undefined): { offset?: number; gain?: number } {
+  return {
+    ...(typeof body?.gain === 'number' ? { gain: body.gain } : {}),
+    ...(typeof body?.offset === 'number' ? { offset: body.offset } : {}),
+  };
 }

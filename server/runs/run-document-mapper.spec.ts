@@ -1,4 +1,4 @@
-import { checkRunDocument } from '../engine';
+import { checkRunDocument, validateRunDocument } from '../engine';
 import { loadFixture } from '../../testing/fixture-runs';
 import { documentToStorage, storageToDocument, type DocumentContext } from './run-document-mapper';
 
@@ -63,5 +63,12 @@ describe('a register certificate\'s corrections in a stored run\'s document', ()
 
   it('add nothing to the document when the certificate states none (a demo run\'s document and hash stay as they were)', () => {
     expect(documentWith({}).instruments.find((i) => i.id === 'TC-9')!.calibration).toEqual({ U: expect.any(Number), k: 2 });
+  });
+
+  it('read a null the register once kept as "not stated": the document stays one the check can read', () => {
+    const doc = documentWith({ gain: null, offset: -0.05 } as unknown as Record<string, number>);
+    expect(doc.instruments.find((i) => i.id === 'TC-9')!.calibration!.correction).toEqual({ certificate: 'HIAT-CAL-2310', offset: -0.05, unit: 'degC' });
+    expect(validateRunDocument(doc).ok).toBe(true);
+    expect(documentWith({ gain: null, offset: null } as unknown as Record<string, number>).instruments.find((i) => i.id === 'TC-9')!.calibration).toEqual({ U: expect.any(Number), k: 2 });
   });
 });

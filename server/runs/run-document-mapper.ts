@@ -79,9 +79,10 @@ export function registerInstrument(inst: RegisterInstrument, channelUnit: string
  * (the engine applies it to the readings, corrections.ts). Nothing when the certificate states none.
  */
 function correctionOf(cal: InferSelectModel<typeof calibrations>, unit: string): { correction?: CertificateCorrection } {
+  // A null stored before nulls were left out at the edge is "not stated" too.
   const { gain, offset } = cal.corrections ?? {};
-  if (gain === undefined && offset === undefined) return {};
-  return { correction: { certificate: cal.certificate, ...(gain !== undefined ? { gain } : {}), ...(offset !== undefined ? { offset } : {}), unit } };
+  if (typeof gain !== 'number' && typeof offset !== 'number') return {};
+  return { correction: { certificate: cal.certificate, ...(typeof gain === 'number' ? { gain } : {}), ...(typeof offset === 'number' ? { offset } : {}), unit } };
 }
 
 export interface DocumentContext {

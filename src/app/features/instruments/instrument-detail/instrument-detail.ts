@@ -94,7 +94,7 @@ export class InstrumentDetail {
   }
 
   protected hasCorrections(calibration: CalibrationRecord): boolean {
-    return calibration.corrections.offset !== undefined || calibration.corrections.gain !== undefined;
+    return calibration.corrections.offset != null || calibration.corrections.gain != null;
   }
 
   /** The certificate's correction as the balance check applies it, e.g. "× 1.0004 − 0.05 °C". */
