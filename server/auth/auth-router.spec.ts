@@ -1,5 +1,5 @@
 import bcrypt from 'bcryptjs';
-import { eq } from 'drizzle-orm';
+import { asc, eq } from 'drizzle-orm';
 import { SignJWT, UnsecuredJWT } from 'jose';
 import request from 'supertest';
 import { auditEvents, people, roles } from '../../db/schema';
@@ -24,7 +24,8 @@ async function makePerson(tag: string, password = 'a-long-enough-password') {
 }
 
 const actionsFor = async (email: string) =>
-  (await h.handle.db.select().from(auditEvents).where(eq(auditEvents.actorEmail, email))).map((e) => e.action);
+  // In the trail's order: without ORDER BY, PostgreSQL may return rows in any order (once seen: sign-out before sign-in).
+  (await h.handle.db.select().from(auditEvents).where(eq(auditEvents.actorEmail, email)).orderBy(asc(auditEvents.id))).map((e) => e.action);
 
 describe('GET /api/auth/me', () => {
   it('answers 401 as a problem without a session', async () => {
