@@ -1,6 +1,6 @@
 import { and, eq, sql } from 'drizzle-orm';
 import type { Database, DbOrTx } from '../../db/client';
-import { apparatus, gases, imports, instruments, projectMembers, readings, runs, uploads } from '../../db/schema';
+import { apparatus, gases, imports, projectMembers, readings, runs, uploads } from '../../db/schema';
 import { recordAudit } from '../audit/audit-service';
 import { badRequest, conflict, forbidden, HttpProblem, notFound } from '../core/problem';
 import type { SessionPerson } from '../core/session';
@@ -10,6 +10,7 @@ import { loadReadings } from '../runs/run-loader';
 import type { RunSetup } from '../runs/run-setup';
 import { sha256ReadingRows } from '../runs/readings-bulk';
 import { insertReadings } from '../runs/readings-bulk';
+import { checkRegisterInstruments } from '../runs/register-instruments';
 import { nextCode } from '../runs/run-code';
 import type { CommitBody } from './imports-dto';
 import { checkMapping, checkRows, ROW_ERROR_CAP } from './row-validation';
@@ -38,13 +39,6 @@ async function checkNewRunReferences(tx: DbOrTx, person: SessionPerson, body: { 
   }
 }
 
-async function checkInstruments(tx: DbOrTx, body: CommitBody) {
-  for (const c of body.mapping.columns) {
-    if (c.instrumentId === undefined) continue;
-    const [inst] = await tx.select({ id: instruments.id }).from(instruments).where(eq(instruments.id, c.instrumentId));
-    if (!inst) throw badRequest(`There is no instrument with id ${c.instrumentId} in the register.`, [{ field: `mapping.columns.${c.channel}.instrumentId`, message: 'unknown instrument' }]);
-  }
-}
 
 /**
  * Commits an import all-or-nothing: every row is checked again against the mapping, then the run is created
@@ -65,7 +59,7 @@ export async function commitImport(db: Database, person: SessionPerson, id: numb
         check.errors.slice(0, 100).map((e) => ({ field: `row ${e.row}, column "${e.column}"`, message: e.message })),
         { rowErrors: check.errors, errorCount: check.errorCount, errorCap: ROW_ERROR_CAP });
     }
-    await checkInstruments(tx, body);
+    await checkRegisterInstruments(tx, body.mapping.columns.flatMap((c) => (c.instrumentId !== undefined ? [{ channel: c.channel, id: c.instrumentId, field: `mapping.columns.${c.channel}.instrumentId` }] : [])));
     const { rows, time, channels } = readingsToRows(check.input);
     let runId: number;
     let version: number;

@@ -3,7 +3,7 @@ import { inRoleGroup, RUN_AUTHORS } from '../../contract/roles';
 import type { RunPage, RunRead } from '../../contract/api/runs';
 import type { Wire } from '../../contract/wire';
 import type { Database, DbOrTx } from '../../db/client';
-import { apparatus, balanceResults, gases, instruments, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
+import { apparatus, balanceResults, gases, people, projectMembers, projects, readings, runs, signatures } from '../../db/schema';
 import { recordAudit, recordAuditAlone } from '../audit/audit-service';
 import type { Config } from '../config';
 import { badRequest, forbidden } from '../core/problem';
@@ -20,6 +20,7 @@ import { hashStoredReadings, insertReadingChunks, insertReadings } from './readi
 import type { ReadingsFeed } from './readings-body';
 import type { ReadingRow } from './run-document-mapper';
 import { overPressureFilter } from './run-filters';
+import { checkRegisterInstruments, type NamedInstrument } from './register-instruments';
 import { loadReadings, loadRunDocument } from './run-loader';
 import type { RunSetup } from './run-setup';
 import { submitProblems } from './submit-checklist';
@@ -120,7 +121,7 @@ export class RunsService {
   }
 
   private async checkReferences(tx: DbOrTx, person: SessionPerson, body: { projectId?: number; gasId?: number | null; apparatusId?: number | null; setup?: unknown }) {
-    await checkRegisterInstruments(tx, (body.setup as RunSetup | undefined)?.channels, 'setup.channels');
+    await checkRegisterInstruments(tx, boundInstruments((body.setup as RunSetup | undefined)?.channels, 'setup.channels'));
     if (body.projectId !== undefined) {
       const [member] = await tx.select().from(projectMembers).where(and(eq(projectMembers.projectId, body.projectId), eq(projectMembers.personId, person.id)));
       if (!member) throw forbidden(`You are not a member of project ${body.projectId}; runs are created in one of your own projects.`);
@@ -181,7 +182,7 @@ export class RunsService {
       const { time, channels } = header;
       return await this.db.transaction(async (tx) => {
         const before = await loadRunFor(tx, person, id, 'edit', header.version);
-        await checkRegisterInstruments(tx, channels, 'channels');
+        await checkRegisterInstruments(tx, boundInstruments(channels, 'channels'));
         const old = await hashStoredReadings(tx, id);
         await tx.delete(readings).where(eq(readings.runId, id));
         await insertReadingChunks(tx, id, header, feed.chunks());
@@ -260,19 +261,7 @@ function channelsWithoutInstrument(doc: RunDocument): string[] {
     .map(([name]) => name);
 }
 
-/**
- * The register instruments a run's channels name must exist: a channel bound to no instrument would be
- * checked without its instrument's uncertainty and certificate, and nobody would see why.
- */
-async function checkRegisterInstruments(tx: DbOrTx, channels: RunSetup['channels'] | undefined, prefix: string): Promise<void> {
-  const named = Object.entries(channels ?? {}).flatMap(([name, c]) => (c?.instrumentId !== undefined ? [{ name, id: c.instrumentId }] : []));
-  if (named.length === 0) return;
-  const found = new Set((await tx.select({ id: instruments.id }).from(instruments).where(inArray(instruments.id, named.map((n) => n.id)))).map((r) => r.id));
-  const missing = named.filter((n) => !found.has(n.id));
-  if (missing.length) {
-    throw badRequest(
-      `There is no instrument with id ${[...new Set(missing.map((n) => n.id))].join(', ')} in the register; choose the ${missing.map((n) => n.name).join(' and ')} instrument again.`,
-      missing.map((n) => ({ field: `${prefix}.${n.name}.instrumentId`, message: `unknown instrument ${n.id}` })),
-    );
-  }
+/** The register instruments a setup's channels are bound to, with the field of each (`<prefix>.<channel>.instrumentId`). */
+function boundInstruments(channels: RunSetup['channels'] | undefined, prefix: string): NamedInstrument[] {
+  return Object.entries(channels ?? {}).flatMap(([channel, c]) => (c?.instrumentId !== undefined ? [{ channel, id: c.instrumentId, field: `${prefix}.${channel}.instrumentId` }] : []));
 }
